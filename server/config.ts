@@ -1,0 +1,83 @@
+import { z } from 'zod';
+
+/**
+ * The server's configuration: read once from the environment (and command-line flags, which
+ * override it), validated with zod, frozen. Nothing else reads `process.env`.
+ */
+
+export const logLevels = ['fatal', 'error', 'warn', 'info', 'debug', 'trace', 'silent'] as const;
+
+const databaseUrlSchema = z
+  .string()
+  .min(1, 'must not be empty')
+  .refine((value) => /^(sqlite:|postgres:\/\/|postgresql:\/\/)/.test(value), {
+    message: 'must start with sqlite: (for example sqlite:./data/plotgauge.db) or postgres://',
+  });
+
+export const configSchema = z.strictObject({
+  port: z.coerce
+    .number({ message: 'must be a whole number' })
+    .int('must be a whole number')
+    .min(0, 'must be between 0 and 65535')
+    .max(65535, 'must be between 0 and 65535'),
+  host: z.string().min(1, 'must not be empty'),
+  databaseUrl: databaseUrlSchema,
+  logLevel: z.enum(logLevels, { message: `must be one of ${logLevels.join(', ')}` }),
+  /**
+   * SQLite `synchronous` setting. `full` (default) makes every acknowledged commit survive both
+   * a killed process and a power cut; `normal` survives a killed process only. See DEVELOPERS.md.
+   */
+  sqliteSync: z.enum(['full', 'normal'], { message: 'must be full or normal' }),
+  /** Folder of the item bank (JSON item files, scenarios, maps). */
+  itemsDir: z.string().min(1, 'must not be empty'),
+});
+
+export type Config = Readonly<z.infer<typeof configSchema>>;
+
+/** Which environment variable feeds which config key; also the README's configuration table. */
+export const environmentVariables = {
+  port: { name: 'PORT', default: '8080', meaning: 'TCP port the server listens on' },
+  host: { name: 'HOST', default: '127.0.0.1', meaning: 'address to listen on (0.0.0.0 for a kiosk network)' },
+  databaseUrl: {
+    name: 'DATABASE_URL',
+    default: 'sqlite:./data/plotgauge.db',
+    meaning: 'sqlite:<file> (embedded) or postgres://user@host:port/db',
+  },
+  logLevel: { name: 'LOG_LEVEL', default: 'info', meaning: logLevels.join(', ') },
+  sqliteSync: { name: 'SQLITE_SYNC', default: 'full', meaning: 'full (survives power cuts) or normal' },
+  itemsDir: { name: 'ITEMS_DIR', default: './items', meaning: 'folder of the item bank' },
+} as const satisfies Record<keyof Config, { name: string; default: string; meaning: string }>;
+
+/** A configuration problem, reported as one line naming the variable and the problem. */
+export class ConfigError extends Error {
+  override readonly name = 'ConfigError';
+}
+
+type Overrides = Partial<Record<keyof Config, string | undefined>>;
+
+/**
+ * Builds the configuration from an environment object and flag overrides.
+ * @throws {ConfigError} naming the first offending variable, e.g. `PORT: must be between 0 and 65535`
+ */
+export function loadConfig(
+  env: NodeJS.ProcessEnv | Record<string, string | undefined>,
+  overrides: Overrides = {},
+): Config {
+  const raw: Record<string, string> = {};
+  for (const [key, variable] of Object.entries(environmentVariables) as [
+    keyof Config,
+    { name: string; default: string },
+  ][]) {
+    raw[key] = overrides[key] ?? env[variable.name] ?? variable.default;
+  }
+  const parsed = configSchema.safeParse(raw);
+  if (!parsed.success) {
+    const issue = parsed.error.issues[0];
+    const key = issue?.path[0] as keyof Config | undefined;
+    const name = key ? environmentVariables[key].name : 'configuration';
+    throw new ConfigError(
+      `${name}: ${issue?.message ?? 'invalid'} (got ${JSON.stringify(key ? raw[key] : '')})`,
+    );
+  }
+  return Object.freeze(parsed.data);
+}

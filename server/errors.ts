@@ -1,0 +1,44 @@
+/**
+ * Every error the HTTP API answers with has a stable code listed here. DEVELOPERS.md mirrors this
+ * table and test/docs.test.ts keeps the two in step.
+ */
+export const errorCodes = {
+  VALIDATION_FAILED: { status: 400, meaning: 'a body, query or path parameter does not match its schema' },
+  INVALID_JSON: { status: 400, meaning: 'the body is not valid JSON' },
+  EMPTY_BODY: { status: 400, meaning: 'the content type says JSON but the body is empty' },
+  UNAUTHORIZED: { status: 401, meaning: 'no valid token was sent' },
+  FORBIDDEN: { status: 403, meaning: 'the token may not do this' },
+  NOT_FOUND: { status: 404, meaning: 'no such route' },
+  ITEM_NOT_FOUND: { status: 404, meaning: 'no item with this id in the bank' },
+  CONFLICT: { status: 409, meaning: 'the request contradicts what is already stored' },
+  BODY_TOO_LARGE: { status: 413, meaning: 'the body is larger than the route accepts' },
+  UNSUPPORTED_MEDIA_TYPE: { status: 415, meaning: 'the content type is not accepted' },
+  RATE_LIMITED: { status: 429, meaning: 'too many requests from this client; retry later' },
+  INTERNAL_ERROR: { status: 500, meaning: 'a fault in the server; logged, details withheld' },
+  DATABASE_UNAVAILABLE: { status: 503, meaning: 'the database cannot be reached' },
+  MIGRATIONS_PENDING: {
+    status: 503,
+    meaning: 'the database schema is older than this server; run plotgauge migrate',
+  },
+} as const satisfies Record<string, { status: number; meaning: string }>;
+
+export type ErrorCode = keyof typeof errorCodes;
+
+/** An error with a stable code, a message a person understands, and optional details (e.g. the field). */
+export class AppError extends Error {
+  override readonly name = 'AppError';
+  readonly statusCode: number;
+  constructor(
+    readonly code: ErrorCode,
+    message: string,
+    readonly details: Record<string, unknown> = {},
+  ) {
+    super(message);
+    this.statusCode = errorCodes[code].status;
+  }
+}
+
+/** The body of every error answer. */
+export interface ErrorBody {
+  error: { code: ErrorCode; message: string; details: Record<string, unknown> };
+}

@@ -1,0 +1,122 @@
+/**
+ * The typed schema of plotgauge's database: one interface per table, composed into `Database`.
+ * Both engines store the same types: ids and timestamps as text (timestamps are ISO-8601 UTC,
+ * e.g. `2031-05-04T10:15:00.000Z`), flags as integers 0/1, JSON documents as text, numbers as
+ * integer or double precision. Migrations in `migrations/` create exactly these columns.
+ */
+import type { Insertable, Selectable } from 'kysely';
+
+export interface ItemsTable {
+  id: string;
+  /** 1, 2, 3, ... in the order new content hashes of this id were first seen. */
+  version: number;
+  content_hash: string;
+  status: 'active' | 'retired' | 'draft';
+  first_seen_at: string;
+}
+
+export interface StudiesTable {
+  id: string;
+  title: string;
+  /** JSON: item pool, form design, limits, consent text, background questions, kiosk mode. */
+  settings: string;
+  status: 'open' | 'closed';
+  created_at: string;
+  updated_at: string;
+}
+
+export interface CohortsTable {
+  id: string;
+  study_id: string;
+  label: string;
+  join_code: string;
+  created_at: string;
+}
+
+export interface AttemptsTable {
+  id: string;
+  cohort_id: string;
+  /** SHA-256 of the respondent's 128-bit token; the token itself is never stored. */
+  token_hash: string;
+  status: 'started' | 'finished' | 'abandoned';
+  /** JSON: the ordered item ids (and versions) this attempt presents, or the adaptive state. */
+  form: string;
+  /** JSON: answers to the study's background questions; '{}' when none. */
+  background: string;
+  consented_at: string | null;
+  started_at: string;
+  last_seen_at: string;
+  finished_at: string | null;
+}
+
+export interface ResponsesTable {
+  id: string;
+  attempt_id: string;
+  item_id: string;
+  item_version: number;
+  /** 0-based position of the item in the attempt. */
+  position: number;
+  /** 'answer', or 'dont-know' (scored 0, stored as its own kind). */
+  answer_kind: 'answer' | 'dont-know';
+  /** JSON of the answer as given (option id(s), number or text); null for 'dont-know'. */
+  answer: string | null;
+  /** Score from the key; null until a person scores a rubric item. */
+  score: number | null;
+  /** Time from the item being shown to the answer arriving, measured by the server. */
+  server_ms: number | null;
+  /** The client's own measurement, kept beside the server's. */
+  client_ms: number | null;
+  received_at: string;
+}
+
+export interface CalibrationsTable {
+  id: string;
+  study_id: string | null;
+  method: 'cml' | 'mml';
+  /** JSON: options, groups, anchors. */
+  settings: string;
+  converged: number;
+  iterations: number;
+  log_likelihood: number | null;
+  /** Number of responses used, and the newest response time included, to tell when it is stale. */
+  response_count: number;
+  responses_until: string | null;
+  created_at: string;
+}
+
+export interface CalibrationItemsTable {
+  calibration_id: string;
+  item_id: string;
+  item_version: number;
+  difficulty: number;
+  standard_error: number | null;
+  infit: number | null;
+  outfit: number | null;
+  anchored: number;
+}
+
+export interface AuditLogTable {
+  id: string;
+  at: string;
+  /** Who did it: a token label, 'cli', or 'system'. */
+  actor: string;
+  action: string;
+  subject: string;
+  /** JSON with the particulars; never answers or tokens. */
+  details: string;
+}
+
+export interface Database {
+  items: ItemsTable;
+  studies: StudiesTable;
+  cohorts: CohortsTable;
+  attempts: AttemptsTable;
+  responses: ResponsesTable;
+  calibrations: CalibrationsTable;
+  calibration_items: CalibrationItemsTable;
+  audit_log: AuditLogTable;
+}
+
+export type ItemRow = Selectable<ItemsTable>;
+export type NewItemRow = Insertable<ItemsTable>;
+export type AuditRow = Selectable<AuditLogTable>;
