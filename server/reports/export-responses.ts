@@ -107,7 +107,10 @@ export function wideResponseTable(responses: readonly ExportedResponse[]): Expor
  * Empty cells stand for null: missing, unscored, or not asked.
  */
 export function exportTableToCsv(table: ExportTable): string {
-  return stringify([table.columns, ...table.rows.map((row) => row.map((cell) => (cell === null ? '' : cell)))], {
-    record_delimiter: 'windows',
-  });
+  return stringify(
+    [table.columns, ...table.rows.map((row) => row.map((cell) => (cell === null ? '' : cell)))],
+    {
+      record_delimiter: 'windows',
+    },
+  );
 }
