@@ -1,0 +1,55 @@
+#!/bin/sh
+# Re-runs scripts/reference/rasch-erm.R into a temporary directory and fails when the fresh
+# output differs from the committed fixtures in test/reference/erm-*.json.
+# Numbers are compared to 8 significant digits (absolute 1e-9 near zero); strings and array
+# shapes must match exactly. Needs Rscript with eRm and psychotools, and node.
+set -eu
+cd "$(dirname "$0")/../.."
+if ! command -v Rscript >/dev/null 2>&1; then
+  echo "check-fixtures: Rscript not found" >&2
+  exit 1
+fi
+fresh=$(mktemp -d)
+trap 'rm -rf "$fresh"' EXIT
+Rscript scripts/reference/rasch-erm.R "$fresh" >"$fresh/rasch-erm.log" 2>&1 || {
+  cat "$fresh/rasch-erm.log" >&2
+  exit 1
+}
+node --input-type=module - "$fresh" <<'JS'
+import { readFileSync, readdirSync } from 'node:fs';
+const fresh = process.argv[2];
+const problems = [];
+const compare = (a, b, path) => {
+  if (typeof a === 'number' && typeof b === 'number') {
+    const scale = Math.max(Math.abs(a), Math.abs(b));
+    if (Math.abs(a - b) > Math.max(1e-9, 1e-8 * scale)) problems.push(`${path}: committed ${a}, fresh ${b}`);
+  } else if (Array.isArray(a) && Array.isArray(b)) {
+    if (a.length !== b.length) problems.push(`${path}: length ${a.length} vs ${b.length}`);
+    else a.forEach((v, k) => compare(v, b[k], `${path}[${k}]`));
+  } else if (a && b && typeof a === 'object' && typeof b === 'object') {
+    const keys = new Set([...Object.keys(a), ...Object.keys(b)]);
+    for (const key of keys) compare(a[key], b[key], `${path}.${key}`);
+  } else if (a !== b) problems.push(`${path}: committed ${JSON.stringify(a)}, fresh ${JSON.stringify(b)}`);
+};
+const names = readdirSync(fresh).filter((f) => /^erm-.*\.json$/.test(f));
+if (names.length === 0) problems.push('no fixtures were written');
+for (const name of names) {
+  let committed;
+  try {
+    committed = JSON.parse(readFileSync(`test/reference/${name}`, 'utf8'));
+  } catch {
+    problems.push(`${name}: not committed`);
+    continue;
+  }
+  compare(committed, JSON.parse(readFileSync(`${fresh}/${name}`, 'utf8')), name);
+}
+for (const name of readdirSync('test/reference').filter((f) => /^erm-.*\.json$/.test(f))) {
+  if (!names.includes(name)) problems.push(`${name}: committed but no longer generated`);
+}
+if (problems.length > 0) {
+  console.error(`check-fixtures: ${problems.length} difference(s)`);
+  for (const p of problems.slice(0, 40)) console.error(`  ${p}`);
+  process.exit(1);
+}
+console.log(`check-fixtures: ${names.length} fixtures match`);
+JS
