@@ -3,10 +3,18 @@ import Fastify, { type FastifyInstance, type FastifyServerOptions } from 'fastif
 import fp from 'fastify-plugin';
 import { jsonSchemaTransform, serializerCompiler, validatorCompiler } from 'fastify-type-provider-zod';
 import type { Kysely } from 'kysely';
+import type { ItemBank } from './bank/load-bank.js';
 import type { Config } from './config.js';
+import { deliveryBankFrom, type ItemViewRenderer } from './delivery/bank-adapter.js';
+import { bankChartRenderer, respondentItemViews } from './delivery/item-view.js';
+import { adminRoutes } from './http/admin-routes.js';
+import { bankRoutes } from './http/bank-routes.js';
 import { registerErrorHandlers } from './http/error-handler.js';
 import { healthRoutes } from './http/health-routes.js';
 import { openapiRoutes } from './http/openapi-routes.js';
+import { pageRoutes } from './http/page-routes.js';
+import { reportRoutes } from './http/report-routes.js';
+import { respondentRoutes } from './http/respondent-routes.js';
 import { engineOf } from './storage/create-database.js';
 import type { Database } from './storage/database.js';
 
@@ -20,6 +28,13 @@ declare module 'fastify' {
 export interface AppDependencies {
   config: Config;
   db: Kysely<Database>;
+  /**
+   * The loaded, validated item bank (server/bank/load-bank.ts). `plotgauge serve` always passes it;
+   * only tests that deliver nothing leave it out (then the bank is empty and no study can be created).
+   */
+  bank?: ItemBank;
+  /** How a respondent sees one item; defaults to the bank's respondent view. */
+  itemView?: ItemViewRenderer;
   /** Pino logger options, or false for none (tests). */
   logger?: FastifyServerOptions['logger'];
 }
@@ -44,8 +59,11 @@ export const requestLogSerializers = {
  */
 export type AppPluginOptions = Omit<AppDependencies, 'logger'>;
 
+/** A bank with no items (tests that deliver nothing; a server always loads the real one). */
+const emptyBank: ItemBank = { items: [], byId: new Map(), scenarios: [], maps: new Map() };
+
 export const appPlugin = fp<AppPluginOptions>(
-  async (app: FastifyInstance, { config, db }: AppPluginOptions) => {
+  async (app: FastifyInstance, { config, db, bank = emptyBank, itemView }: AppPluginOptions) => {
     app.setValidatorCompiler(validatorCompiler);
     app.setSerializerCompiler(serializerCompiler);
     app.decorate('db', db);
@@ -60,6 +78,13 @@ export const appPlugin = fp<AppPluginOptions>(
 
     await app.register(healthRoutes, { engine: engineOf(config.databaseUrl) });
     await app.register(openapiRoutes);
+    const render = bankChartRenderer(bank);
+    const deliveryBank = deliveryBankFrom(bank, itemView ?? respondentItemViews(render));
+    await app.register(respondentRoutes, { bank: deliveryBank });
+    await app.register(adminRoutes, { bank: deliveryBank, config });
+    await app.register(bankRoutes, { bank, render });
+    await app.register(pageRoutes);
+    await app.register(reportRoutes, { bank: deliveryBank, config });
   },
   { name: 'plotgauge', fastify: '5.x' },
 );
@@ -80,8 +105,11 @@ export function serverOptions(logger: AppDependencies['logger'] = false): Fastif
  * Builds the fastify app from configuration and a database handle. It never listens:
  * `server/main.ts` does that, tests inject requests or hand `app.server` to supertest.
  */
-export async function buildApp({ config, db, logger = false }: AppDependencies): Promise<FastifyInstance> {
+export async function buildApp({
+  logger = false,
+  ...dependencies
+}: AppDependencies): Promise<FastifyInstance> {
   const app = Fastify(serverOptions(logger));
-  await app.register(appPlugin, { config, db });
+  await app.register(appPlugin, dependencies);
   return app;
 }

@@ -30,6 +30,13 @@ export const configSchema = z.strictObject({
   sqliteSync: z.enum(['full', 'normal'], { message: 'must be full or normal' }),
   /** Folder of the item bank (JSON item files, scenarios, maps). */
   itemsDir: z.string().min(1, 'must not be empty'),
+  /**
+   * Bearer token of the admin API (at least 16 characters). Unset: the admin API answers 401 and
+   * says to set ADMIN_TOKEN. The CLI does not need it.
+   */
+  adminToken: z.string().min(16, 'must be at least 16 characters').optional(),
+  /** Base of join links and QR codes, e.g. https://survey.example.org; default http://HOST:PORT. */
+  publicUrl: z.url({ message: 'must be an http(s) URL' }).optional(),
 });
 
 export type Config = Readonly<z.infer<typeof configSchema>>;
@@ -46,6 +53,16 @@ export const environmentVariables = {
   logLevel: { name: 'LOG_LEVEL', default: 'info', meaning: logLevels.join(', ') },
   sqliteSync: { name: 'SQLITE_SYNC', default: 'full', meaning: 'full (survives power cuts) or normal' },
   itemsDir: { name: 'ITEMS_DIR', default: './items', meaning: 'folder of the item bank' },
+  adminToken: {
+    name: 'ADMIN_TOKEN',
+    default: '',
+    meaning: 'bearer token of the admin API (16+ characters); unset: admin API off',
+  },
+  publicUrl: {
+    name: 'PUBLIC_URL',
+    default: '',
+    meaning: 'base URL of join links and QR codes; default http://HOST:PORT',
+  },
 } as const satisfies Record<keyof Config, { name: string; default: string; meaning: string }>;
 
 /** A configuration problem, reported as one line naming the variable and the problem. */
@@ -68,16 +85,19 @@ export function loadConfig(
     keyof Config,
     { name: string; default: string },
   ][]) {
-    raw[key] = overrides[key] ?? env[variable.name] ?? variable.default;
+    const value = overrides[key] ?? env[variable.name] ?? variable.default;
+    // An optional setting (documented default '') left empty means "not set".
+    if (value === '' && variable.default === '') continue;
+    raw[key] = value;
   }
   const parsed = configSchema.safeParse(raw);
   if (!parsed.success) {
     const issue = parsed.error.issues[0];
     const key = issue?.path[0] as keyof Config | undefined;
     const name = key ? environmentVariables[key].name : 'configuration';
-    throw new ConfigError(
-      `${name}: ${issue?.message ?? 'invalid'} (got ${JSON.stringify(key ? raw[key] : '')})`,
-    );
+    // Secrets are never echoed back.
+    const got = key === 'adminToken' ? '' : ` (got ${JSON.stringify(key ? raw[key] : '')})`;
+    throw new ConfigError(`${name}: ${issue?.message ?? 'invalid'}${got}`);
   }
   return Object.freeze(parsed.data);
 }

@@ -7,8 +7,15 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Command, CommanderError } from 'commander';
 import { buildApp } from './app.js';
+import { registerCalibrateCommand } from './cli/calibrate-command.js';
 import { CliError } from './cli/cli-error.js';
+import { registerCohortCommand } from './cli/cohort-command.js';
+import { registerDemoCommand } from './cli/demo-command.js';
+import { registerExportCommand } from './cli/export-command.js';
+import { registerReportCommand } from './cli/report-command.js';
+import { openBank, recordItemVersions } from './cli/open-bank.js';
 import { openDatabase } from './cli/open-database.js';
+import { registerStudyCommand } from './cli/study-command.js';
 import { type Config, ConfigError, loadConfig } from './config.js';
 import { migrateDownToZero } from './storage/migrate.js';
 
@@ -24,8 +31,10 @@ function configFrom(flags: ServerFlags): Config {
 
 async function serve(flags: ServerFlags): Promise<void> {
   const config = configFrom(flags);
+  const bank = await openBank(config.itemsDir);
   const db = await openDatabase(config);
-  const app = await buildApp({ config, db, logger: { level: config.logLevel } });
+  await recordItemVersions(db, bank);
+  const app = await buildApp({ config, db, bank, logger: { level: config.logLevel } });
   const close = async (signal: string) => {
     app.log.info({ signal }, 'closing');
     await app.close();
@@ -72,6 +81,13 @@ export function buildProgram(): Command {
       await db.destroy();
       console.log(flags.downToZero ? 'all migrations undone' : 'database schema is current');
     });
+
+  registerCalibrateCommand(program);
+  registerStudyCommand(program);
+  registerCohortCommand(program);
+  registerExportCommand(program);
+  registerReportCommand(program);
+  registerDemoCommand(program);
 
   return program;
 }
