@@ -1,8 +1,14 @@
 #!/bin/sh
-# Re-runs scripts/reference/rasch-erm.R into a temporary directory and fails when the fresh
-# output differs from the committed fixtures in test/reference/erm-*.json.
+# Re-runs the fixture scripts in scripts/reference/ into a temporary directory and fails when the
+# fresh output differs from the committed fixtures in test/reference/:
+#   rasch-erm.R        -> erm-*.json
+#   mantel-haenszel.R  -> mantel-haenszel-*.json
+#   lltm-pcm-erm.R     -> lltm-*.json, pcm-*.json
+#   weighted-kappa.R   -> kappa-*.json
+#   rasch-lme4.R       -> lme4-*.json
+#   normal-cdf.R       -> pnorm.json
 # Numbers are compared to 8 significant digits (absolute 1e-9 near zero); strings and array
-# shapes must match exactly. Needs Rscript with eRm and psychotools, and node.
+# shapes must match exactly. Needs Rscript with eRm, psychotools, psych, lme4 and jsonlite, and node.
 set -eu
 cd "$(dirname "$0")/../.."
 if ! command -v Rscript >/dev/null 2>&1; then
@@ -11,10 +17,12 @@ if ! command -v Rscript >/dev/null 2>&1; then
 fi
 fresh=$(mktemp -d)
 trap 'rm -rf "$fresh"' EXIT
-Rscript scripts/reference/rasch-erm.R "$fresh" >"$fresh/rasch-erm.log" 2>&1 || {
-  cat "$fresh/rasch-erm.log" >&2
-  exit 1
-}
+for script in rasch-erm mantel-haenszel lltm-pcm-erm weighted-kappa rasch-lme4 normal-cdf; do
+  Rscript "scripts/reference/$script.R" "$fresh" >"$fresh/$script.log" 2>&1 || {
+    cat "$fresh/$script.log" >&2
+    exit 1
+  }
+done
 node --input-type=module - "$fresh" <<'JS'
 import { readFileSync, readdirSync } from 'node:fs';
 const fresh = process.argv[2];
@@ -31,7 +39,8 @@ const compare = (a, b, path) => {
     for (const key of keys) compare(a[key], b[key], `${path}.${key}`);
   } else if (a !== b) problems.push(`${path}: committed ${JSON.stringify(a)}, fresh ${JSON.stringify(b)}`);
 };
-const names = readdirSync(fresh).filter((f) => /^erm-.*\.json$/.test(f));
+const generated = /^(erm|mantel-haenszel|lltm|pcm|kappa|lme4)-.*\.json$|^pnorm\.json$/;
+const names = readdirSync(fresh).filter((f) => generated.test(f));
 if (names.length === 0) problems.push('no fixtures were written');
 for (const name of names) {
   let committed;
@@ -43,7 +52,7 @@ for (const name of names) {
   }
   compare(committed, JSON.parse(readFileSync(`${fresh}/${name}`, 'utf8')), name);
 }
-for (const name of readdirSync('test/reference').filter((f) => /^erm-.*\.json$/.test(f))) {
+for (const name of readdirSync('test/reference').filter((f) => generated.test(f))) {
   if (!names.includes(name)) problems.push(`${name}: committed but no longer generated`);
 }
 if (problems.length > 0) {

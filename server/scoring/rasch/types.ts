@@ -1,11 +1,7 @@
 /** Shared result shapes for Rasch calibrations, so CML and MML answers read the same way. */
 
 /** Why a person or an item took no part in an estimation. */
-export type ExclusionReason =
-  | 'no-responses'
-  | 'all-correct'
-  | 'all-wrong'
-  | 'constant-in-every-score-group';
+export type ExclusionReason = 'no-responses' | 'all-correct' | 'all-wrong' | 'constant-in-every-score-group';
 
 export interface Exclusion {
   readonly id: string;
@@ -17,7 +13,10 @@ export interface ItemCalibration {
   readonly method: 'cml' | 'mml';
   /** Ids of the calibrated items, in the order of the arrays below. */
   readonly itemIds: readonly string[];
-  /** b_i, logits; mean zero over free items unless items were anchored. */
+  /**
+   * b_i, logits. CML: mean zero over the items unless items were anchored. MML: the first
+   * group's mean ability is fixed at zero instead, unless items were anchored.
+   */
   readonly difficulty: Float64Array;
   /** SE(b_i) from the information matrix; 0 for anchored items. */
   readonly standardError: Float64Array;
