@@ -82,7 +82,7 @@ export const appPlugin = fp<AppPluginOptions>(
     const deliveryBank = deliveryBankFrom(bank, itemView ?? respondentItemViews(render));
     await app.register(respondentRoutes, { bank: deliveryBank });
     await app.register(adminRoutes, { bank: deliveryBank, config });
-    await app.register(bankRoutes, { bank, render });
+    await app.register(bankRoutes, { bank, render, adminToken: config.adminToken });
     await app.register(pageRoutes);
     await app.register(reportRoutes, { bank: deliveryBank, config });
   },

@@ -12,9 +12,10 @@ import { CliError } from './cli/cli-error.js';
 import { registerCohortCommand } from './cli/cohort-command.js';
 import { registerDemoCommand } from './cli/demo-command.js';
 import { registerExportCommand } from './cli/export-command.js';
-import { registerReportCommand } from './cli/report-command.js';
 import { openBank, recordItemVersions } from './cli/open-bank.js';
 import { openDatabase } from './cli/open-database.js';
+import { registerReportCommand } from './cli/report-command.js';
+import { registerSimulateCommand } from './cli/simulate-command.js';
 import { registerStudyCommand } from './cli/study-command.js';
 import { type Config, ConfigError, loadConfig } from './config.js';
 import { migrateDownToZero } from './storage/migrate.js';
@@ -84,6 +85,7 @@ export function buildProgram(): Command {
 
   registerCalibrateCommand(program);
   registerStudyCommand(program);
+  registerSimulateCommand(program);
   registerCohortCommand(program);
   registerExportCommand(program);
   registerReportCommand(program);

@@ -15,7 +15,8 @@ interface Column {
 /**
  * Renders an area chart. Several series are stacked in series order (first at the bottom) with
  * d3-shape's `stack` (offset none, order none); a missing value counts as 0. Each series is one
- * `<path class="mark area">`. The y axis starts at 0 and reaches the highest stack top.
+ * `<path class="mark area">`. The y axis starts at 0 and reaches the highest stack top. An
+ * annotation points at the top of the stack at its row's x value.
  *
  * @param spec a parsed `area` spec
  * @param options size, ids, alt text, label callback, theme
@@ -63,10 +64,14 @@ export function renderAreaChart(spec: ChartSpecOf<'area'>, options: ChartRenderO
     .y0((point) => layout.y(point[0]))
     .y1((point) => layout.y(point[1]))
     .digits(canvas.theme.digits);
+  // An annotation names a time point, so it points at the top of the whole stack there (not at
+  // the boundary between two bands, which reads as marking one series).
+  const top = layers[layers.length - 1];
   const marks = layers.map((layer, seriesIndex) => {
-    layer.forEach((point) => {
+    layer.forEach((point, columnIndex) => {
       const row = point.data.rows[seriesIndex] ?? -1;
-      if (row >= 0) canvas.anchor(row, layout.x(point.data.cell), layout.y(point[1]));
+      const stackTop = top?.[columnIndex]?.[1] ?? point[1];
+      if (row >= 0) canvas.anchor(row, layout.x(point.data.cell), layout.y(stackTop));
     });
     return element('path', {
       class: 'mark area',

@@ -3,6 +3,8 @@ import { scaleSqrt } from 'd3-scale';
 import { ChartCanvas, type ChartRenderOptions } from './chart-canvas.js';
 import { cellText, fieldOf, fieldTitle, numberOrNull } from './chart-data.js';
 import type { ChartSpecOf } from './chart-spec.js';
+import { drawPlacedLabels, labelBounds } from './draw-placed-labels.js';
+import { type LabelRequest, placeLabels } from './label-placer.js';
 import { directLabelWidth } from './legend.js';
 import { element } from './svg.js';
 import { xyLayout } from './xy-layout.js';
@@ -14,7 +16,8 @@ const largestRadius = 32;
  * Renders a bubble chart: x and y as in a scatter plot, circle AREA proportional to `size`
  * (d3 `scaleSqrt` from 0 to the largest size, largest radius 32 units). Bubbles are drawn
  * largest first so small ones stay visible, with a light fill so overlaps show. Point labels
- * go right of the bubble's centre plus its radius.
+ * go where {@link placeLabels} finds room around the bubble (right first, then left, above,
+ * below, the diagonals, then further out with a leader line).
  *
  * @param spec a parsed `bubble` spec
  * @param options size, ids, alt text, label callback, theme
@@ -58,17 +61,26 @@ export function renderBubbleChart(spec: ChartSpecOf<'bubble'>, options: ChartRen
         'stroke-width': 1.5,
       });
     });
-  const labels =
+  const requests: LabelRequest[] =
     spec.pointLabel === undefined
       ? []
-      : placed.map((bubble) =>
-          canvas.text(bubble.cx + bubble.r + 4, bubble.cy, pointLabels[bubble.index]!, {
-            kind: 'point',
-            className: 'point-label',
-            align: 'middle',
-            halo: true,
-          }),
-        );
+      : placed.map((bubble) => ({
+          text: pointLabels[bubble.index]!,
+          x: bubble.cx,
+          y: bubble.cy,
+          markRadius: bubble.r,
+          size: canvas.theme.fontSize.label,
+        }));
+  const labels = drawPlacedLabels(
+    canvas,
+    requests,
+    requests.map(() => 'point'),
+    placeLabels(requests, {
+      bounds: labelBounds(canvas, layout.plot),
+      fixed: canvas.drawnBoxes,
+      marks: placed.map((bubble) => ({ x: bubble.cx, y: bubble.cy, r: bubble.r, weight: 300 })),
+    }),
+  );
   return canvas.finish(
     [layout.frame, element('g', { class: 'marks' }, marks), element('g', { class: 'labels' }, labels)],
     {

@@ -62,6 +62,8 @@ export class ChartCanvas {
   private readonly header: string[] = [];
   private readonly footer: string[] = [];
   private readonly anchors = new Map<number, { x: number; y: number }>();
+  /** Estimated boxes of every text drawn so far, in drawing order (for label placement). */
+  readonly drawnBoxes: LabelBox[] = [];
 
   constructor(
     private readonly spec: ChartSpec,
@@ -135,14 +137,16 @@ export class ChartCanvas {
     const width = estimateTextWidth(content, size, style.bold ?? false);
     const anchor = style.anchor ?? 'start';
     const left = anchor === 'middle' ? x - width / 2 : anchor === 'end' ? x - width : x;
-    this.options.onLabel?.({
+    const box = {
       x: left,
       y: baseline - ascent * size,
       width,
       height: size,
       text: content,
       kind: style.kind,
-    });
+    };
+    this.drawnBoxes.push(box);
+    this.options.onLabel?.(box);
     const halo = style.halo === true;
     return textElement(
       'text',

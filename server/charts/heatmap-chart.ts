@@ -37,18 +37,25 @@ export function renderHeatmapChart(spec: ChartSpecOf<'heatmap'>, options: ChartR
   const xTitle = fieldTitle(fieldOf(spec, spec.x));
   const yTitle = fieldTitle(fieldOf(spec, spec.y));
   const tickSize = canvas.theme.fontSize.tick;
-  const lines = wrappedLineCount(
-    xCategories,
-    tickSize,
-    (canvas.right - canvas.left) / Math.max(1, xCategories.length) - 8,
-  );
-  const plot = plotFrame(canvas, {
-    leftLabels: yCategories,
-    bottomLabels: xCategories,
-    bottomLabelLines: lines,
-    leftTitle: yTitle,
-    bottomTitle: xTitle,
-  });
+  // Column labels wrap to the column step the axis will use (4 % band padding, 8 units of air);
+  // the plot's width depends on the label lines, so lay out once, then again if the lines change.
+  const frameFor = (bottomLabelLines: number) =>
+    plotFrame(canvas, {
+      leftLabels: yCategories,
+      bottomLabels: xCategories,
+      bottomLabelLines,
+      leftTitle: yTitle,
+      bottomTitle: xTitle,
+    });
+  const linesFor = (width: number) =>
+    wrappedLineCount(xCategories, tickSize, width / (Math.max(1, xCategories.length) + 0.04) - 8);
+  let lines = linesFor(canvas.right - canvas.left);
+  let plot = frameFor(lines);
+  const needed = linesFor(plot.width);
+  if (needed !== lines) {
+    lines = needed;
+    plot = frameFor(lines);
+  }
   const x = scaleBand<string>()
     .domain(xCategories)
     .range([plot.x, plot.x + plot.width])

@@ -3,6 +3,8 @@ import { linearRegression } from 'simple-statistics';
 import { ChartCanvas, type ChartRenderOptions } from './chart-canvas.js';
 import { cellText } from './chart-data.js';
 import type { ChartSpecOf } from './chart-spec.js';
+import { drawPlacedLabels, labelBounds } from './draw-placed-labels.js';
+import { type LabelRequest, placeLabels } from './label-placer.js';
 import { directLabelWidth } from './legend.js';
 import { element } from './svg.js';
 import { xyLayout } from './xy-layout.js';
@@ -12,9 +14,10 @@ const pointRadius = 5;
 /**
  * Renders a scatter plot. Rows missing x or y are left out. With `trendLine` the least-squares
  * line (simple-statistics `linearRegression`, fitted on the drawn coordinates, i.e. on log10
- * values along a log axis) runs across the data's x range, clipped to the plot. Point labels sit
- * right of their points; several series get a legend or (direct) their name beside the series'
- * rightmost point.
+ * values along a log axis) runs across the data's x range, clipped to the plot. Point labels go
+ * where {@link placeLabels} finds room (right of the point first, then left, above, below, the
+ * diagonals, then further out with a leader line); several series get a legend or (direct) their
+ * name beside the series' rightmost point, placed the same way.
  *
  * @param spec a parsed `scatter` spec
  * @param options size, ids, alt text, label callback, theme
@@ -34,8 +37,10 @@ export function renderScatterChart(spec: ChartSpecOf<'scatter'>, options: ChartR
   );
   const layout = xyLayout(canvas, spec, margin / 2);
   const n = (value: number) => canvas.n(value);
+  const labelSize = canvas.theme.fontSize.label;
   const marks: string[] = [];
-  const labels: string[] = [];
+  const requests: LabelRequest[] = [];
+  const requestKinds: Array<'point' | 'direct'> = [];
   for (const point of layout.points) {
     const cx = layout.x(point.x);
     const cy = layout.y(point.y);
@@ -53,35 +58,50 @@ export function renderScatterChart(spec: ChartSpecOf<'scatter'>, options: ChartR
       }),
     );
     if (spec.pointLabel !== undefined) {
-      labels.push(
-        canvas.text(cx + pointRadius + 4, cy, pointLabels[point.index]!, {
-          kind: 'point',
-          className: 'point-label',
-          align: 'middle',
-          halo: true,
-        }),
-      );
+      requests.push({
+        text: pointLabels[point.index]!,
+        x: cx,
+        y: cy,
+        markRadius: pointRadius,
+        size: labelSize,
+      });
+      requestKinds.push('point');
     }
   }
-  if (seriesLabels.length > 1) {
+  if (seriesLabels.length > 1 && spec.pointLabel === undefined) {
     layout.series.forEach((name, seriesIndex) => {
       const members = layout.points.filter((point) => layout.seriesOf(point.row) === seriesIndex);
       const rightmost = members.reduce(
         (best, point) => (best === undefined || point.x > best.x ? point : best),
         members[0],
       );
-      if (rightmost === undefined || spec.pointLabel !== undefined) return;
-      labels.push(
-        canvas.text(layout.x(rightmost.x) + pointRadius + 4, layout.y(rightmost.y), name, {
-          kind: 'direct',
-          className: 'direct-label',
-          align: 'middle',
-          bold: true,
-          halo: true,
-        }),
-      );
+      if (rightmost === undefined) return;
+      requests.push({
+        text: name,
+        x: layout.x(rightmost.x),
+        y: layout.y(rightmost.y),
+        markRadius: pointRadius,
+        size: labelSize,
+        bold: true,
+      });
+      requestKinds.push('direct');
     });
   }
+  const labels = drawPlacedLabels(
+    canvas,
+    requests,
+    requestKinds,
+    placeLabels(requests, {
+      bounds: labelBounds(canvas, layout.plot),
+      fixed: canvas.drawnBoxes,
+      marks: layout.points.map((point) => ({
+        x: layout.x(point.x),
+        y: layout.y(point.y),
+        r: pointRadius,
+        weight: 300,
+      })),
+    }),
+  );
   const parts = [layout.frame];
   if (spec.trendLine && layout.points.length >= 2) parts.push(trendLine(canvas, spec, layout));
   parts.push(element('g', { class: 'marks' }, marks), element('g', { class: 'labels' }, labels));

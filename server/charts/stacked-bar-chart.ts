@@ -13,7 +13,7 @@ import { element } from './svg.js';
 /**
  * Renders a stacked bar chart with d3-shape's `stack` (series order, first series next to the
  * axis; `stackOffsetExpand` when `normalised`, so every bar reaches 100 % and the axis reads in
- * percent). Series are named by a legend, or (`direct`) beside the segments of the last bar
+ * percent, labelled every `valueAxis.tickStep` percent, default 25). Series are named by a legend, or (`direct`) beside the segments of the last bar
  * (vertical) or above the segments of the first bar (horizontal), spread apart.
  *
  * @param spec a parsed `stacked-bar` spec
@@ -53,7 +53,13 @@ export function renderStackedBarChart(
   const valueField = fieldOf(spec, spec.value);
   const categoryField = fieldOf(spec, spec.category);
   const valueAxis = spec.normalised
-    ? numericAxis({ scale: 'linear', domain: [0, 1], tickStep: 0.25 }, [0, 1], { format: format('.0%') })
+    ? numericAxis(
+        { scale: 'linear', domain: [0, 1], tickStep: percentStep(spec.valueAxis.tickStep) / 100 },
+        [0, 1],
+        {
+          format: format('.0%'),
+        },
+      )
     : numericAxis(spec.valueAxis, [0, ...tops], { includeZero: true });
   const valueTitle = spec.normalised
     ? `Share of ${valueField.label.toLowerCase()} (%)`
@@ -106,6 +112,16 @@ export function renderStackedBarChart(
       ],
     },
   );
+}
+
+/**
+ * Tick step of a 100 % axis in percent: `tickStep` read in percent (10 -> every 10 %), default 25;
+ * a step that does not divide 100 falls back to 25 so the axis still ends on 100 %.
+ */
+function percentStep(tickStep: number | undefined): number {
+  if (tickStep === undefined || tickStep > 100) return 25;
+  const count = 100 / tickStep;
+  return Math.abs(count - Math.round(count)) < 1e-9 ? tickStep : 25;
 }
 
 function directLabels(

@@ -3,6 +3,8 @@ import { scaleLinear, scaleSqrt } from 'd3-scale';
 import { ChartCanvas, type ChartRenderOptions } from './chart-canvas.js';
 import { cellText, fieldOf, fieldTitle, formatNumber, numberOrNull } from './chart-data.js';
 import type { ChartSpecOf, StoredMap } from './chart-spec.js';
+import { drawPlacedLabels } from './draw-placed-labels.js';
+import { type LabelRequest, placeLabels } from './label-placer.js';
 import { featureId, featureName, mapFrame } from './map-layout.js';
 import { element } from './svg.js';
 
@@ -13,7 +15,9 @@ const largestRadiusShare = 0.11;
  * Renders a proportional-symbol map of `map`: regions as a light base map, and for each row a
  * circle at its region's centroid whose AREA is proportional to `value` (d3 `scaleSqrt` from 0,
  * so radius grows with the square root); larger circles are drawn first. A size legend with two
- * round reference values sits above the map. Region names go under the circles.
+ * round reference values sits above the map. Region names go where {@link placeLabels} finds
+ * room around the circle (or centred on a region without one), preferring spots inside the
+ * region's own outline; largest circles are labelled first.
  *
  * @param spec a parsed `symbol-map` spec
  * @param map the stored map named by `spec.map`
@@ -79,20 +83,42 @@ export function renderSymbolMapChart(
     );
   const labels: string[] = [];
   if (spec.regionLabels) {
-    for (const feature of frame.features) {
-      const entry = placed.find((candidate) => candidate.region === featureId(feature));
-      const [cx, cy] = frame.path.centroid(feature);
-      const y = entry === undefined ? cy : cy + entry.r + 4;
-      labels.push(
-        canvas.text(cx, y, featureName(feature), {
-          kind: 'region',
-          className: 'region-label',
-          anchor: 'middle',
-          align: entry === undefined ? 'middle' : 'top',
-          halo: true,
+    // Regions with the largest circles first: they have the least free room around them.
+    const order = frame.features
+      .map((feature) => ({
+        feature,
+        entry: placed.find((candidate) => candidate.region === featureId(feature)),
+      }))
+      .sort((a, b) => (b.entry?.r ?? 0) - (a.entry?.r ?? 0));
+    const requests: LabelRequest[] = order.map(({ feature, entry }) => {
+      const [cx, cy] = entry === undefined ? frame.path.centroid(feature) : [entry.cx, entry.cy];
+      return {
+        text: featureName(feature),
+        x: cx,
+        y: cy,
+        markRadius: entry?.r ?? 0,
+        size: canvas.theme.fontSize.label,
+        centred: entry === undefined,
+        prefer: (x: number, y: number) => frame.contains(feature, x, y),
+      };
+    });
+    labels.push(
+      ...drawPlacedLabels(
+        canvas,
+        requests,
+        requests.map(() => 'region'),
+        placeLabels(requests, {
+          bounds: {
+            x: canvas.left,
+            y: canvas.top,
+            width: canvas.right - canvas.left,
+            height: canvas.bottom - canvas.top,
+          },
+          fixed: canvas.drawnBoxes,
+          marks: placed.map((entry) => ({ x: entry.cx, y: entry.cy, r: entry.r, weight: 300 })),
         }),
-      );
-    }
+      ),
+    );
   }
   return canvas.finish(
     [

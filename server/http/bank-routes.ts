@@ -6,9 +6,16 @@ import { taskLevels } from '../bank/item-schema.js';
 import type { ItemBank } from '../bank/load-bank.js';
 import { chartTypes } from '../charts/chart-spec.js';
 import { galleryCss, renderBankGallery } from '../pages/bank-gallery.js';
+import { consoleApiGuard, consolePageGuard } from './console-auth.js';
+import { errorBodySchema } from './schemas.js';
 
 export interface BankRoutesOptions {
   readonly bank: ItemBank;
+  /**
+   * The admin token. The gallery shows every key and rationale, so it is for the team only: a
+   * browser signed in at /sign-in (console cookie) or a request with the bearer token.
+   */
+  readonly adminToken: string | undefined;
   /** Draws one chart; default the chart layer's renderChart with the bank's maps bound. */
   readonly render?: ChartRenderer;
 }
@@ -43,37 +50,56 @@ const svgPath = /^(.+)\.svg$/;
 export async function bankRoutes(app: FastifyInstance, options: BankRoutesOptions): Promise<void> {
   const { bank } = options;
   const render = options.render ?? bankChartRenderer(bank.maps);
+  const pageGuard = consolePageGuard(options.adminToken);
+  const apiGuard = consoleApiGuard(options.adminToken);
+  const textAnswer = {
+    200: z.string(),
+    303: z.null(),
+    400: errorBodySchema,
+    401: errorBodySchema,
+    404: errorBodySchema,
+  };
 
-  app.get('/bank', async (request, reply) => {
-    const parsed = galleryQuerySchema.safeParse(request.query);
-    if (!parsed.success) {
-      return reply.code(400).send({
-        error: {
-          code: 'VALIDATION_FAILED',
-          message: 'the gallery filters are not valid',
-          details: {
-            issues: parsed.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message })),
+  app.get(
+    '/bank',
+    { preHandler: pageGuard, schema: { hide: true, response: textAnswer } },
+    async (request, reply) => {
+      const parsed = galleryQuerySchema.safeParse(request.query);
+      if (!parsed.success) {
+        return reply.code(400).send({
+          error: {
+            code: 'VALIDATION_FAILED',
+            message: 'the gallery filters are not valid',
+            details: {
+              issues: parsed.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message })),
+            },
           },
-        },
-      });
-    }
-    return reply.type('text/html; charset=utf-8').send(renderBankGallery(bank, parsed.data, render));
-  });
-
-  app.get('/bank/gallery.css', async (_request, reply) =>
-    reply.type('text/css; charset=utf-8').send(galleryCss),
+        });
+      }
+      return reply.type('text/html; charset=utf-8').send(renderBankGallery(bank, parsed.data, render));
+    },
   );
 
-  app.get<{ Params: { file: string } }>('/bank/:file', async (request, reply) => {
-    const match = svgPath.exec(request.params.file);
-    const id = match?.[1] ?? request.params.file;
-    const item = match === null ? undefined : bank.byId.get(id);
-    if (item === undefined) {
-      return reply.code(404).send({
-        error: { code: 'ITEM_NOT_FOUND', message: `no item "${id}" in the bank`, details: { itemId: id } },
-      });
-    }
-    const svg = render(item.chart, { alt: item.alt, idPrefix: `item-${item.id}-` });
-    return reply.type('image/svg+xml; charset=utf-8').send(svg);
-  });
+  app.get(
+    '/bank/gallery.css',
+    { schema: { hide: true, response: { 200: z.string() } } },
+    async (_request, reply) => reply.type('text/css; charset=utf-8').send(galleryCss),
+  );
+
+  app.get<{ Params: { file: string } }>(
+    '/bank/:file',
+    { preHandler: apiGuard, schema: { hide: true, response: textAnswer } },
+    async (request, reply) => {
+      const match = svgPath.exec(request.params.file);
+      const id = match?.[1] ?? request.params.file;
+      const item = match === null ? undefined : bank.byId.get(id);
+      if (item === undefined) {
+        return reply.code(404).send({
+          error: { code: 'ITEM_NOT_FOUND', message: `no item "${id}" in the bank`, details: { itemId: id } },
+        });
+      }
+      const svg = render(item.chart, { alt: item.alt, idPrefix: `item-${item.id}-` });
+      return reply.type('image/svg+xml; charset=utf-8').send(svg);
+    },
+  );
 }

@@ -63,6 +63,9 @@ export function bootstrapAbilityDistributions(
   const scores = new Uint8Array(personCount * keptColumns.length);
   const index = new Int32Array(personCount);
   const personIds = matrix.personIds.map((_, p) => `r${p}`);
+  // A resample can be unfittable (e.g. an SD collapsing in a small group); such a replicate is
+  // drawn again, at most `replicates` extra times in all, so the loop stays bounded.
+  let redraws = 0;
   for (let r = 0; r < replicates; r++) {
     let row = 0;
     members.forEach((list, g) => {
@@ -75,10 +78,17 @@ export function bootstrapAbilityDistributions(
         row++;
       }
     });
-    const fit = calibrateMml(
-      { personIds, itemIds, scores },
-      { anchors, groups: { index, labels }, quadraturePoints: options.quadraturePoints ?? 21 },
-    );
+    let fit: ReturnType<typeof calibrateMml>;
+    try {
+      fit = calibrateMml(
+        { personIds, itemIds, scores },
+        { anchors, groups: { index, labels }, quadraturePoints: options.quadraturePoints ?? 21 },
+      );
+    } catch (error) {
+      if (++redraws > replicates) throw error;
+      r--;
+      continue;
+    }
     results.push(fit.groups.map((group) => ({ label: group.label, mean: group.mean, sd: group.sd })));
   }
   return results;

@@ -1,5 +1,16 @@
 import { gaussHermite } from '../scoring/quadrature/gauss-hermite.js';
 
+/** Gauss–Hermite rules by number of points, computed once: reports call this thousands of times. */
+const rules = new Map<number, { nodes: Float64Array; weights: Float64Array }>();
+function ruleFor(points: number) {
+  let rule = rules.get(points);
+  if (!rule) {
+    rule = gaussHermite(points);
+    rules.set(points, rule);
+  }
+  return rule;
+}
+
 /** A normal ability distribution on the logit scale. */
 export interface AbilityDistribution {
   readonly mean: number;
@@ -31,7 +42,7 @@ export function expectedShareCorrect(
 ): number {
   if (difficulties.length === 0) throw new Error('expectedShareCorrect requires at least one item');
   if (!(distribution.sd >= 0)) throw new Error('expectedShareCorrect requires a non-negative SD');
-  const { nodes, weights } = gaussHermite(points);
+  const { nodes, weights } = ruleFor(points);
   let total = 0;
   for (let i = 0; i < difficulties.length; i++) {
     const b = difficulties[i]!;

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { renderBoxPlotChart } from '../../server/charts/box-plot-chart.js';
 import { type ChartSpecOf, chartSpecSchema } from '../../server/charts/chart-spec.js';
-import { axisMapping, byClass, findElements, num, parseSvg } from '../helpers/svg.js';
+import { axisMapping, byClass, findElements, num, parseSvg, textsOf } from '../helpers/svg.js';
 import { boxPlotSpec } from './fixtures/specs.js';
 
 describe('renderBoxPlotChart', () => {
@@ -32,5 +32,18 @@ describe('renderBoxPlotChart', () => {
     expect(byClass(root, 'mark outlier')).toHaveLength(0);
     const x = axisMapping(root, 'bottom');
     expect(num(byClass(byClass(root, 'mark box')[0]!, 'whisker')[1]!, 'x2')).toBeCloseTo(x(30), 1);
+  });
+
+  it('keeps short category labels on one line in a horizontal box plot (wrap only when needed)', () => {
+    const stops = ['Stop 1', 'Stop 2', 'Stop 3'];
+    const spec = chartSpecSchema.parse({
+      ...boxPlotSpec,
+      orientation: 'horizontal',
+      data: stops.flatMap((station, index) =>
+        [2, 4, 5, 7, 9].map((rain) => ({ station, rain: rain + index })),
+      ),
+    }) as ChartSpecOf<'box-plot'>;
+    const root = parseSvg(renderBoxPlotChart(spec));
+    expect(textsOf(byClass(root, 'axis-left')[0]!, 'tick-label')).toEqual(stops);
   });
 });

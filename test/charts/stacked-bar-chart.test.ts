@@ -36,4 +36,29 @@ describe('renderStackedBarChart', () => {
     const q1Cod = byClass(root, 'mark segment').find((segment) => segment.attributes['data-row'] === '0')!;
     expect(num(q1Cod, 'y')).toBeCloseTo(y(30 / 55), 0);
   });
+
+  it('labels a 100 % axis every valueAxis.tickStep percent (10 -> 0 %, 10 %, ..., 100 %)', () => {
+    const spec = chartSpecSchema.parse({
+      ...stackedBarSpec,
+      normalised: true,
+      labelling: 'legend',
+      valueAxis: { scale: 'linear', domain: [0, 100], tickStep: 10 },
+    }) as ChartSpecOf<'stacked-bar'>;
+    const root = parseSvg(renderStackedBarChart(spec));
+    const ticks = textsOf(root, 'tick-label').filter((label) => label.endsWith('%'));
+    expect(ticks).toEqual(['0%', '10%', '20%', '30%', '40%', '50%', '60%', '70%', '80%', '90%', '100%']);
+    const y = axisMapping(root, 'left');
+    expect(y(0.1) - y(0)).toBeCloseTo((y(1) - y(0)) / 10, 6);
+  });
+
+  it('falls back to 25 % steps when tickStep does not divide 100', () => {
+    const spec = chartSpecSchema.parse({
+      ...stackedBarSpec,
+      normalised: true,
+      labelling: 'legend',
+      valueAxis: { scale: 'linear', tickStep: 30 },
+    }) as ChartSpecOf<'stacked-bar'>;
+    const ticks = textsOf(parseSvg(renderStackedBarChart(spec)), 'tick-label').filter((l) => l.endsWith('%'));
+    expect(ticks).toEqual(['0%', '25%', '50%', '75%', '100%']);
+  });
 });

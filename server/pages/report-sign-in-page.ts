@@ -1,0 +1,34 @@
+import { html } from './html.js';
+
+/**
+ * The console's sign-in page: one password field for the admin token and a hidden `next` path. A link
+ * of the form `/sign-in?next=…#token=…` signs in without typing: the small same-origin script
+ * (/report-assets/sign-in.js) moves the token from the URL fragment, which browsers never send to the
+ * server or write to its logs, into the form and submits it.
+ */
+export function renderSignInPage(options: { next: string; error?: string }): string {
+  return html`<!doctype html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<meta name="referrer" content="no-referrer">
+<title>Sign in · plotgauge</title>
+<link rel="stylesheet" href="/report-assets/report.css">
+</head>
+<body>
+<main class="sign-in">
+<h1>Sign in to the reports</h1>
+${options.error ? html`<p class="notice" role="alert">${options.error}</p>` : ''}
+<form method="post" action="/sign-in" id="sign-in">
+<input type="hidden" name="next" value="${options.next}">
+<label for="token">Admin token</label>
+<input type="password" id="token" name="token" autocomplete="current-password" required minlength="16">
+<button type="submit">Sign in</button>
+</form>
+</main>
+<script src="/report-assets/sign-in.js"></script>
+</body>
+</html>
+`.toString();
+}
