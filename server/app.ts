@@ -7,12 +7,16 @@ import type { ItemBank } from './bank/load-bank.js';
 import type { Config } from './config.js';
 import { deliveryBankFrom, type ItemViewRenderer } from './delivery/bank-adapter.js';
 import { bankChartRenderer, respondentItemViews } from './delivery/item-view.js';
+import { accessControl } from './http/access-control.js';
+import { accessHeaders } from './http/access-headers.js';
+import { accessLimits } from './http/access-limits.js';
 import { adminRoutes } from './http/admin-routes.js';
 import { bankRoutes } from './http/bank-routes.js';
 import { registerErrorHandlers } from './http/error-handler.js';
 import { healthRoutes } from './http/health-routes.js';
 import { openapiRoutes } from './http/openapi-routes.js';
 import { pageRoutes } from './http/page-routes.js';
+import { pilotRoutes } from './http/pilot-routes.js';
 import { reportRoutes } from './http/report-routes.js';
 import { respondentRoutes } from './http/respondent-routes.js';
 import { engineOf } from './storage/create-database.js';
@@ -68,6 +72,13 @@ export const appPlugin = fp<AppPluginOptions>(
     app.setSerializerCompiler(serializerCompiler);
     app.decorate('db', db);
     registerErrorHandlers(app);
+    // Headers first (refusals carry them too), then the one access check: both cover every route.
+    await app.register(accessHeaders);
+    await app.register(accessControl, { adminToken: config.adminToken, db });
+    await app.register(accessLimits, {
+      joinPerMinute: config.rateLimitJoin,
+      answersPerMinute: config.rateLimitAnswers,
+    });
 
     await app.register(swagger, {
       openapi: {
@@ -82,9 +93,10 @@ export const appPlugin = fp<AppPluginOptions>(
     const deliveryBank = deliveryBankFrom(bank, itemView ?? respondentItemViews(render));
     await app.register(respondentRoutes, { bank: deliveryBank });
     await app.register(adminRoutes, { bank: deliveryBank, config });
-    await app.register(bankRoutes, { bank, render, adminToken: config.adminToken });
+    await app.register(bankRoutes, { bank, render });
     await app.register(pageRoutes);
     await app.register(reportRoutes, { bank: deliveryBank, config });
+    await app.register(pilotRoutes);
   },
   { name: 'plotgauge', fastify: '5.x' },
 );

@@ -35,6 +35,19 @@ export const configSchema = z.strictObject({
    * says to set ADMIN_TOKEN. The CLI does not need it.
    */
   adminToken: z.string().min(16, 'must be at least 16 characters').optional(),
+  /** Joins per client address per minute (0: no limit); see server/http/access-limits.ts. */
+  rateLimitJoin: z.coerce.number({ message: 'must be a whole number' }).int('must be a whole number').min(0),
+  /** Respondent requests per client address per minute (0: no limit). */
+  rateLimitAnswers: z.coerce
+    .number({ message: 'must be a whole number' })
+    .int('must be a whole number')
+    .min(0),
+  /** Days after which background answers are dropped (at start-up and `plotgauge retention apply`); unset: kept. */
+  retentionDays: z.coerce
+    .number({ message: 'must be a whole number' })
+    .int('must be a whole number')
+    .min(1)
+    .optional(),
   /** Base of join links and QR codes, e.g. https://survey.example.org; default http://HOST:PORT. */
   publicUrl: z.url({ message: 'must be an http(s) URL' }).optional(),
 });
@@ -57,6 +70,22 @@ export const environmentVariables = {
     name: 'ADMIN_TOKEN',
     default: '',
     meaning: 'bearer token of the admin API (16+ characters); unset: admin API off',
+  },
+  rateLimitJoin: {
+    name: 'RATE_LIMIT_JOIN',
+    default: '120',
+    meaning: 'joins per client address per minute; 0 turns the limit off',
+  },
+  rateLimitAnswers: {
+    name: 'RATE_LIMIT_ANSWERS',
+    default: '1200',
+    meaning: 'respondent requests (answers, steps) per client address per minute; 0: off',
+  },
+  retentionDays: {
+    name: 'RETENTION_DAYS',
+    default: '',
+    meaning:
+      'days after which background answers are dropped (at start-up and by retention apply); unset: kept',
   },
   publicUrl: {
     name: 'PUBLIC_URL',

@@ -12,7 +12,9 @@ export const errorCodes = {
   ITEM_NOT_FOUND: { status: 404, meaning: 'no item with this id in the bank' },
   STUDY_NOT_FOUND: { status: 404, meaning: 'no study with this id' },
   COHORT_NOT_FOUND: { status: 404, meaning: 'no cohort with this id in the study' },
+  PILOT_NOT_FOUND: { status: 404, meaning: 'no pilot with this id in the study' },
   JOIN_CODE_NOT_FOUND: { status: 404, meaning: 'no cohort has this join code' },
+  ATTEMPT_NOT_FOUND: { status: 404, meaning: 'no attempt with this id (or it was erased)' },
   CONFLICT: { status: 409, meaning: 'the request contradicts what is already stored' },
   ANSWER_ALREADY_STORED: {
     status: 409,
@@ -32,6 +34,11 @@ export const errorCodes = {
   CALIBRATION_NOT_CONVERGED: {
     status: 409,
     meaning: 'the latest calibration did not converge; no report is drawn from it',
+  },
+  ADAPTIVE_NEEDS_CALIBRATION: {
+    status: 409,
+    meaning:
+      'an adaptive study needs a converged calibration of its items; run it fixed or rotated and calibrate first',
   },
   STUDY_CLOSED: { status: 410, meaning: 'the study is closed; its join codes no longer work' },
   BODY_TOO_LARGE: { status: 413, meaning: 'the body is larger than the route accepts' },

@@ -7,18 +7,24 @@ import path from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { Command, CommanderError } from 'commander';
 import { buildApp } from './app.js';
+import { registerBackupCommand } from './cli/backup-command.js';
 import { registerCalibrateCommand } from './cli/calibrate-command.js';
 import { CliError } from './cli/cli-error.js';
 import { registerCohortCommand } from './cli/cohort-command.js';
 import { registerDemoCommand } from './cli/demo-command.js';
+import { registerEraseCommand } from './cli/erase-command.js';
 import { registerExportCommand } from './cli/export-command.js';
 import { openBank, recordItemVersions } from './cli/open-bank.js';
 import { openDatabase } from './cli/open-database.js';
 import { registerReportCommand } from './cli/report-command.js';
+import { registerRestoreCommand } from './cli/restore-command.js';
+import { registerRetentionCommand } from './cli/retention-command.js';
 import { registerSimulateCommand } from './cli/simulate-command.js';
 import { registerStudyCommand } from './cli/study-command.js';
+import { registerTokenCommand } from './cli/token-command.js';
 import { type Config, ConfigError, loadConfig } from './config.js';
 import { migrateDownToZero } from './storage/migrate.js';
+import { applyRetention } from './storage/retention-repository.js';
 
 interface ServerFlags {
   port?: string;
@@ -35,6 +41,9 @@ async function serve(flags: ServerFlags): Promise<void> {
   const bank = await openBank(config.itemsDir);
   const db = await openDatabase(config);
   await recordItemVersions(db, bank);
+  if (config.retentionDays !== undefined) {
+    await db.transaction().execute((trx) => applyRetention(trx, config.retentionDays as number, 'system'));
+  }
   const app = await buildApp({ config, db, bank, logger: { level: config.logLevel } });
   const close = async (signal: string) => {
     app.log.info({ signal }, 'closing');
@@ -90,6 +99,11 @@ export function buildProgram(): Command {
   registerExportCommand(program);
   registerReportCommand(program);
   registerDemoCommand(program);
+  registerTokenCommand(program);
+  registerBackupCommand(program);
+  registerRestoreCommand(program);
+  registerEraseCommand(program);
+  registerRetentionCommand(program);
 
   return program;
 }

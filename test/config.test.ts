@@ -10,6 +10,8 @@ describe('loadConfig', () => {
       logLevel: 'info',
       sqliteSync: 'full',
       itemsDir: './items',
+      rateLimitJoin: 120,
+      rateLimitAnswers: 1200,
     });
   });
 

@@ -7,6 +7,7 @@
 #   weighted-kappa.R   -> kappa-*.json
 #   rasch-lme4.R       -> lme4-*.json
 #   normal-cdf.R       -> pnorm.json
+#   export-to-erm.R    -> export-erm-*.json (from the committed test/reference/export-erm-*.csv)
 # Numbers are compared to 8 significant digits (absolute 1e-9 near zero); strings and array
 # shapes must match exactly. Needs Rscript with eRm, psychotools, psych, lme4 and jsonlite, and node.
 set -eu
@@ -17,7 +18,7 @@ if ! command -v Rscript >/dev/null 2>&1; then
 fi
 fresh=$(mktemp -d)
 trap 'rm -rf "$fresh"' EXIT
-for script in rasch-erm mantel-haenszel lltm-pcm-erm weighted-kappa rasch-lme4 normal-cdf; do
+for script in rasch-erm mantel-haenszel lltm-pcm-erm weighted-kappa rasch-lme4 normal-cdf export-to-erm; do
   Rscript "scripts/reference/$script.R" "$fresh" >"$fresh/$script.log" 2>&1 || {
     cat "$fresh/$script.log" >&2
     exit 1
@@ -39,7 +40,7 @@ const compare = (a, b, path) => {
     for (const key of keys) compare(a[key], b[key], `${path}.${key}`);
   } else if (a !== b) problems.push(`${path}: committed ${JSON.stringify(a)}, fresh ${JSON.stringify(b)}`);
 };
-const generated = /^(erm|mantel-haenszel|lltm|pcm|kappa|lme4)-.*\.json$|^pnorm\.json$/;
+const generated = /^(erm|mantel-haenszel|lltm|pcm|kappa|lme4|export-erm)-.*\.json$|^pnorm\.json$/;
 const names = readdirSync(fresh).filter((f) => generated.test(f));
 if (names.length === 0) problems.push('no fixtures were written');
 for (const name of names) {

@@ -2,6 +2,8 @@
  * `plotgauge calibrate <responses.csv> [--method cml|mml] [--anchor items.csv] [--out dir]`:
  * calibrates a Rasch model from a CSV of responses, prints an item table, and writes item and
  * person results (CSV and JSON) to the output folder.
+ * `plotgauge calibrate --study <id> [--anchor-to <calibration>] [--replicates n] [--seed n]`:
+ * calibrates a stored study instead (see calibrate-study-command.ts).
  *
  * Input, detected by the header:
  * - long: columns `person,item,score` (any order, any case), one answer per line;
@@ -30,6 +32,7 @@ import { computeFitStatistics } from '../scoring/rasch/fit-statistics.js';
 import { pointMeasureCorrelation } from '../scoring/rasch/point-measure-correlation.js';
 import type { ItemCalibration } from '../scoring/rasch/types.js';
 import { MISSING, type ResponseMatrix } from '../scoring/response-matrix.js';
+import { runCalibrateStudy } from './calibrate-study-command.js';
 import { CliError } from './cli-error.js';
 
 /** Bad input to `calibrate`: one line naming the file and line; exit code 2. */
@@ -357,20 +360,57 @@ export function registerCalibrateCommand(program: Command): void {
   program
     .command('calibrate')
     .description(
-      'fit a Rasch model to a CSV of responses; print the item table and write item and person files',
+      'fit a Rasch model to a CSV of responses (print the item table, write item and person files), ' +
+        'or with --study calibrate a study from its stored responses and store the calibration',
     )
     .argument(
-      '<responses.csv>',
+      '[responses.csv]',
       'long (person,item,score) or wide (person column, then one column per item) CSV',
     )
     .option('--method <method>', 'cml (conditional) or mml (marginal)', 'cml')
     .option('--anchor <items.csv>', 'CSV item,difficulty: keep these items at earlier values')
     .option('--out <dir>', 'write items.csv, items.json, persons.csv, persons.json here')
-    .action(async (file: string, flags: { method: string; anchor?: string; out?: string }) => {
+    .option(
+      '--study <id>',
+      'calibrate this study from the database instead of a CSV (MML, cohorts as groups)',
+    )
+    .option('--database <url>', 'with --study: sqlite:<file> or postgres://… (DATABASE_URL)')
+    .option('--anchor-to <calibration>', 'with --study: keep the difficulties of an earlier calibration')
+    .option('--replicates <n>', 'with --study: bootstrap replicates for the report intervals (default 200)')
+    .option('--seed <n>', 'with --study: seed of the bootstrap (default 1)')
+    .action(async (file: string | undefined, flags: CalibrateFlags) => {
+      if (flags.study !== undefined) {
+        if (file !== undefined)
+          throw new CliError('calibrate: give either a responses CSV or --study <id>, not both');
+        await runCalibrateStudy(
+          {
+            study: flags.study,
+            ...(flags.database === undefined ? {} : { database: flags.database }),
+            ...(flags.anchorTo === undefined ? {} : { anchorTo: flags.anchorTo }),
+            ...(flags.replicates === undefined ? {} : { replicates: flags.replicates }),
+            ...(flags.seed === undefined ? {} : { seed: flags.seed }),
+          },
+          (line) => console.log(line),
+        );
+        return;
+      }
+      if (file === undefined)
+        throw new CliError('calibrate: give a responses CSV, or --study <id> to calibrate a stored study');
       await runCalibrate(
         file,
         { method: flags.method as CalibrateOptions['method'], anchor: flags.anchor, out: flags.out },
         { stdout: (t) => process.stdout.write(t), stderr: (t) => process.stderr.write(t) },
       );
     });
+}
+
+interface CalibrateFlags {
+  method: string;
+  anchor?: string;
+  out?: string;
+  study?: string;
+  database?: string;
+  anchorTo?: string;
+  replicates?: string;
+  seed?: string;
 }

@@ -1,4 +1,3 @@
-import type { Command } from 'commander';
 import { calibrateStudy } from '../reports/calibrate-study.js';
 import { CliError } from './cli-error.js';
 import { commandConfig, withDatabase } from './command-config.js';
@@ -22,8 +21,7 @@ function wholeNumber(name: string, value: string | undefined): number | undefine
 /**
  * `plotgauge calibrate --study <id> [--anchor-to <calibration>] [--replicates n] [--seed n]`: calibrates
  * a study from its stored responses (MML, cohorts as groups), stores the calibration, and prints one
- * line per fact. The lead hooks this into `calibrate` (whose CSV mode lives in calibrate-command.ts):
- * when `--study` is given, call `runCalibrateStudy(flags, console.log)` instead of the CSV path.
+ * line per fact. `calibrate` (calibrate-command.ts) calls this when `--study` is given.
  *
  * @returns the stored calibration's id
  */
@@ -62,19 +60,4 @@ export async function runCalibrateStudy(
     }
     return record.id;
   });
-}
-
-/** Registers `calibrate-study` as its own command (until the lead merges it into `calibrate --study`). */
-export function registerCalibrateStudyCommand(program: Command): void {
-  program
-    .command('calibrate-study')
-    .description('calibrate a study from its stored responses and store the calibration')
-    .requiredOption('--study <id>', 'study id')
-    .option('--database <url>', 'sqlite:<file> or postgres://… (DATABASE_URL)')
-    .option('--anchor-to <calibration>', 'keep the difficulties of an earlier calibration (linking)')
-    .option('--replicates <n>', 'bootstrap replicates for the report intervals (default 200)')
-    .option('--seed <n>', 'seed of the bootstrap (default 1)')
-    .action(async (flags: CalibrateStudyFlags) => {
-      await runCalibrateStudy(flags, (line) => console.log(line));
-    });
 }

@@ -23,7 +23,7 @@ export function registerDemoCommand(program: Command): void {
       console.log('');
       console.log(summary);
       console.log(
-        `Ready in ${demo.seconds.toFixed(1)} s. The server keeps running; press Ctrl+C to stop it.`,
+        `Ready in ${demo.seconds.toFixed(1)} s (${demo.cpuSeconds.toFixed(1)} s of CPU). The server keeps running; press Ctrl+C to stop it.`,
       );
       console.log('');
       console.log(`  Report (open this link to sign in):  ${demo.signInUrl}`);

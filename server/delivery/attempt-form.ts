@@ -1,4 +1,5 @@
 import { z } from 'zod';
+import { type AdaptiveState, type ItemStep, stopReasons } from './adaptive/adaptive-state.js';
 
 /**
  * The attempt's `form` JSON: what it presents and how far it got.
@@ -9,7 +10,7 @@ import { z } from 'zod';
  *   an ended attempt's token no longer opens anything.
  */
 export const attemptFormSchema = z.object({
-  design: z.enum(['fixed', 'rotated']),
+  design: z.enum(['fixed', 'rotated', 'adaptive']),
   booklet: z.number().int().min(0),
   items: z.array(z.object({ itemId: z.string(), version: z.number().int().min(1) })),
   presentedAt: z.array(z.string().nullable()),
@@ -17,5 +18,18 @@ export const attemptFormSchema = z.object({
   ended: z.enum(['declined', 'left']).nullable(),
   /** Seeds the option shuffle per attempt (random, not secret). */
   seed: z.string(),
+  /**
+   * Adaptive design only: the engine's state (plain JSON, see adaptive/adaptive-state.ts), the
+   * item step now shown (`pending`, null once stopped), why the attempt stopped, and the
+   * calibration whose difficulties it selects on. `items` grows by one entry per item shown.
+   */
+  adaptive: z
+    .object({
+      state: z.custom<AdaptiveState>((value) => typeof value === 'object' && value !== null),
+      pending: z.custom<ItemStep>((value) => typeof value === 'object' && value !== null).nullable(),
+      stop: z.enum(stopReasons).nullable(),
+      calibrationId: z.string(),
+    })
+    .optional(),
 });
 export type AttemptForm = z.infer<typeof attemptFormSchema>;

@@ -13,6 +13,7 @@ import { type DbHandle, nowIso } from '../storage/db-handle.js';
 import { syncItemVersions } from '../storage/item-version-repository.js';
 import { countAttemptResponses } from '../storage/response-repository.js';
 import { findStudyById, type StudyRecord } from '../storage/study-repository.js';
+import { loadAdaptiveDelivery, startAdaptiveForm } from './adaptive-delivery.js';
 import { type AttemptForm, attemptFormSchema } from './attempt-form.js';
 import { type AttemptState, attemptStep, buildAttemptState } from './attempt-state.js';
 import { hashAttemptToken, looksLikeAttemptToken, newAttemptToken } from './attempt-token.js';
@@ -100,9 +101,9 @@ export async function currentState(
   bank: DeliveryBank,
   context: AttemptContext,
 ): Promise<AttemptState> {
-  let counts = await countAttemptResponses(db, context.attempt.id);
+  // settle() writes only the attempt row, never a response, so the counts stay valid after it.
+  const counts = await countAttemptResponses(db, context.attempt.id);
   await settle(db, context, counts.answered);
-  counts = await countAttemptResponses(db, context.attempt.id);
   return buildAttemptState({ ...context, ...counts, bank });
 }
 
@@ -115,6 +116,7 @@ export async function joinByCode(
   db: DbHandle,
   bank: DeliveryBank,
   typedCode: string,
+  log?: (warning: string) => void,
 ): Promise<{ token: string; state: AttemptState }> {
   const code = normaliseJoinCode(typedCode);
   const cohort = code === undefined ? undefined : await findCohortByJoinCode(db, code);
@@ -140,7 +142,15 @@ export async function joinByCode(
   }
   let itemIds: string[];
   let booklet = 0;
-  if (settings.design === 'rotated') {
+  const seed = randomBytes(8).toString('hex');
+  let adaptive: Pick<AttemptForm, 'items' | 'adaptive'> | undefined;
+  if (settings.design === 'adaptive') {
+    const delivery = await loadAdaptiveDelivery(db, bank, study.id, settings);
+    const started = startAdaptiveForm(delivery, cohort.id, seed);
+    if (started.warning !== null) log?.(started.warning);
+    adaptive = { items: started.items, adaptive: started.adaptive };
+    itemIds = [];
+  } else if (settings.design === 'rotated') {
     const booklets = buildBooklets(pool, settings.maxItems);
     booklet = bookletForAttempt(await countAttemptsInStudy(db, study.id), booklets.length);
     itemIds = booklets[booklet]!;
@@ -156,14 +166,16 @@ export async function joinByCode(
     }),
     at,
   );
+  const items = adaptive?.items ?? itemIds.map((itemId) => ({ itemId, version: versions.get(itemId)! }));
   const form: AttemptForm = {
     design: settings.design,
     booklet,
-    items: itemIds.map((itemId) => ({ itemId, version: versions.get(itemId)! })),
-    presentedAt: itemIds.map(() => null),
+    items,
+    presentedAt: items.map(() => null),
     backgroundDone: settings.background.length === 0,
     ended: null,
-    seed: randomBytes(8).toString('hex'),
+    seed,
+    ...(adaptive?.adaptive === undefined ? {} : { adaptive: adaptive.adaptive }),
   };
   const token = newAttemptToken();
   const id = randomUUID();

@@ -60,7 +60,12 @@ export function buildAttemptState(input: {
       idleSeconds: settings.idleSeconds,
       endSummary: settings.endSummary,
     },
-    progress: { answered, total: form.items.length },
+    // Adaptive: the attempt may stop earlier; the total is the upper bound until it stops.
+    progress: {
+      answered,
+      total:
+        form.adaptive === undefined || form.adaptive.stop !== null ? form.items.length : settings.maxItems,
+    },
   };
   if (step === 'background') {
     state.background = settings.background.map((question) => ({

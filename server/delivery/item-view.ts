@@ -26,21 +26,45 @@ export function seededOrder(n: number, seed: string): number[] {
   return order;
 }
 
+/** How many drawn charts `respondentItemViews` keeps by default (the whole bank holds about 110). */
+export const chartCacheSize = 512;
+
 /**
  * What a respondent sees of one item: the bank's respondent view (chart SVG with the item's alt
  * text, prompt, public parts of the response; never option values, key, rationale or features),
  * with choice options shuffled per attempt by `seed` where the item allows it.
+ *
+ * The renderer is deterministic, so each chart is drawn once per item id and version and reused
+ * (a bounded Map, oldest entry dropped first). Its element ids carry a prefix derived from the item
+ * id and version, so they are the same on every request; a respondent page shows one chart at a time.
+ *
+ * @param cacheSize charts kept (default `chartCacheSize`; 0 draws every time)
  */
-export function respondentItemViews(render: ChartRenderer): ItemViewRenderer {
+export function respondentItemViews(render: ChartRenderer, cacheSize = chartCacheSize): ItemViewRenderer {
+  const drawn = new Map<string, string>();
+  const chartSvg = (item: BankItem): string => {
+    const key = `${item.id}@${item.version}`;
+    const cached = drawn.get(key);
+    if (cached !== undefined) return cached;
+    const svg = render(item.chart, {
+      alt: item.alt,
+      idPrefix: `c${createHash('sha256').update(key).digest('hex').slice(0, 8)}-`,
+    });
+    if (cacheSize > 0) {
+      if (drawn.size >= cacheSize) drawn.delete(drawn.keys().next().value as string);
+      drawn.set(key, svg);
+    }
+    return svg;
+  };
   return (item: BankItem, seed: string): RespondentItemView => {
     const response = item.response;
     const order =
       response.kind === 'single-choice' || response.kind === 'multiple-choice'
         ? seededOrder(response.options.length, seed).map((i) => response.options[i]!.id)
         : undefined;
+    const svg = chartSvg(item);
     const view = toRespondentView(item, {
-      render,
-      idPrefix: `c${createHash('sha256').update(seed).digest('hex').slice(0, 8)}-`,
+      render: () => svg,
       ...(order === undefined ? {} : { optionOrder: order }),
     });
     return {

@@ -2,7 +2,8 @@ import { randomUUID } from 'node:crypto';
 import { AppError } from '../errors.js';
 import { updateAttempt } from '../storage/attempt-repository.js';
 import { type DbHandle, nowIso } from '../storage/db-handle.js';
-import { countAttemptResponses, findResponse, insertResponse } from '../storage/response-repository.js';
+import { findResponse, insertResponse } from '../storage/response-repository.js';
+import { advanceAdaptiveForm, loadAdaptiveDelivery } from './adaptive-delivery.js';
 import { type Answer, canonicalAnswer, sameAnswer } from './answer.js';
 import type { AttemptContext } from './attempt-service.js';
 import { currentState } from './attempt-service.js';
@@ -72,7 +73,8 @@ export async function submitResponse(
   if (before.step === 'finished' || attempt.status !== 'started') {
     throw new AppError('ATTEMPT_FINISHED', 'This attempt is finished; no more answers can be saved.');
   }
-  const { answered } = await countAttemptResponses(db, attempt.id);
+  // currentState just counted the stored responses (in this transaction); no second count.
+  const answered = before.progress.answered;
   const step = attemptStep(attempt, form, settings, answered);
   if (step !== 'item') {
     throw new AppError(
@@ -90,6 +92,7 @@ export async function submitResponse(
   const now = nowIso();
   const presentedAt = form.presentedAt[position];
   const answer = canonicalAnswer(submitted.answer);
+  const score = scoreAnswer(entry.item, entry.key, answer);
   await insertResponse(db, {
     id: randomUUID(),
     attemptId: attempt.id,
@@ -98,11 +101,26 @@ export async function submitResponse(
     position,
     answerKind: answer.kind === 'dont-know' ? 'dont-know' : 'answer',
     answer: answer.kind === 'dont-know' ? null : answer,
-    score: scoreAnswer(entry.item, entry.key, answer),
+    score,
     serverMs: presentedAt ? Math.max(0, Date.parse(now) - Date.parse(presentedAt)) : null,
     clientMs: submitted.clientMs === undefined ? null : Math.round(submitted.clientMs),
     receivedAt: now,
   });
-  await updateAttempt(db, attempt.id, { lastSeenAt: now });
+  if (form.adaptive !== undefined) {
+    // Adaptive: update the estimate and append the next item (or record the stop) in this transaction.
+    const delivery = await loadAdaptiveDelivery(
+      db,
+      bank,
+      context.study.id,
+      settings,
+      form.adaptive.calibrationId,
+    );
+    const first = form.presentedAt[0];
+    const elapsedSeconds = first ? Math.max(0, Date.parse(now) - Date.parse(first)) / 1000 : 0;
+    advanceAdaptiveForm(delivery, form, score, elapsedSeconds);
+    await updateAttempt(db, attempt.id, { form, lastSeenAt: now });
+  } else {
+    await updateAttempt(db, attempt.id, { lastSeenAt: now });
+  }
   return { status: 'stored', state: await currentState(db, bank, context) };
 }

@@ -17,6 +17,7 @@ import {
   type StudyStatus,
   updateStudy,
 } from '../storage/study-repository.js';
+import { requireAdaptiveReady } from './adaptive-delivery.js';
 import { parseStudySettings } from './attempt-service.js';
 import type { DeliveryBank } from './delivery-bank.js';
 import { generateJoinCode } from './join-code.js';
@@ -24,7 +25,7 @@ import { selectItemPool } from './select-item-pool.js';
 import { type StudySettings, type StudySettingsInput, studySettingsSchema } from './study-settings.js';
 
 /** Who made an admin change, as the audit log records it. */
-export type Actor = 'admin-token' | 'cli';
+export type Actor = string;
 
 export interface Study {
   id: string;
@@ -113,6 +114,7 @@ export async function createStudy(
   actor: Actor,
 ): Promise<Study> {
   const settings = validateStudySettings(input, bank);
+  await requireAdaptiveReady(db, bank, undefined, settings);
   const at = nowIso();
   const record = await insertStudy(db, {
     id: randomUUID(),
@@ -160,7 +162,10 @@ export async function changeStudy(
 ): Promise<Study> {
   const record = await requireStudy(db, studyId);
   let settings = parseStudySettings(record);
-  if (change.settings !== undefined) settings = validateStudySettings(change.settings, bank);
+  if (change.settings !== undefined) {
+    settings = validateStudySettings(change.settings, bank);
+    await requireAdaptiveReady(db, bank, studyId, settings);
+  }
   if (change.title !== undefined) settings = { ...settings, title: change.title };
   const status = change.status ?? record.status;
   const at = nowIso();

@@ -1,6 +1,7 @@
 import { z } from 'zod';
 import { kebabIdSchema, taskLevels } from '../bank/item-schema.js';
 import { chartTypes } from '../charts/chart-spec.js';
+import { adaptiveStudySettingsSchema } from './adaptive/adaptive-settings.js';
 
 /** The option every background question offers, added by the server (never by the study author). */
 export const preferNotToSay = 'prefer-not-to-say';
@@ -37,7 +38,7 @@ export const itemPoolSchema = z.strictObject({
 });
 export type ItemPool = z.infer<typeof itemPoolSchema>;
 
-export const formDesigns = ['fixed', 'rotated'] as const;
+export const formDesigns = ['fixed', 'rotated', 'adaptive'] as const;
 export type FormDesign = (typeof formDesigns)[number];
 
 /** What a study asks of its respondents: pool, form design, limits, consent, background, kiosk. */
@@ -45,9 +46,15 @@ export const studySettingsSchema = z
   .strictObject({
     title: z.string().trim().min(1).max(200),
     pool: itemPoolSchema.default({}),
-    /** `fixed`: everyone sees one order; `rotated`: linked booklets (see build-booklets.ts). */
+    /**
+     * `fixed`: everyone sees one order; `rotated`: linked booklets (see build-booklets.ts);
+     * `adaptive`: each next item chosen from the answers so far (needs a calibration; see
+     * server/delivery/adaptive-delivery.ts).
+     */
     design: z.enum(formDesigns).default('fixed'),
-    /** Items per attempt (per booklet when rotated). */
+    /** Adaptive design: stop rules, randomesque k, content targets, default prior (absent: defaults). */
+    adaptive: adaptiveStudySettingsSchema.optional(),
+    /** Items per attempt (per booklet when rotated; the upper bound when adaptive). */
     maxItems: z.number().int().min(1).max(200).default(20),
     timeLimitSeconds: z
       .number()
@@ -75,7 +82,7 @@ export const studySettingsSchema = z
     /** Show "you read N charts" at the end. Off by default. */
     endSummary: z.boolean().default(false),
   })
-  .refine((s) => s.design === 'fixed' || s.maxItems >= 2, {
+  .refine((s) => s.design !== 'rotated' || s.maxItems >= 2, {
     message: 'a rotated design needs at least 2 items per booklet',
     path: ['maxItems'],
   });

@@ -13,10 +13,15 @@ import { calibrateStudy } from '../reports/calibrate-study.js';
 import { reportToText } from '../reports/report-text.js';
 import { seededRandom } from '../scoring/seeded-random.js';
 import type { Database } from '../storage/database.js';
-import { cachedItemViews } from './cached-item-views.js';
 import { generatingDifficulty } from './generating-difficulty.js';
 import { callApi, simulateRespondent } from './simulate-through-api.js';
 import { simulateAbilities } from './simulated-audience.js';
+import {
+  difficultiesFor,
+  injectedDifItems,
+  simulateWorksWithData,
+  worksWithDataQuestion,
+} from './simulated-background.js';
 
 export interface DemoOptions {
   /** SQLite file, recreated each run (default ./data/demo.db). */
@@ -45,6 +50,8 @@ export interface RunningDemo {
   readonly tryUrl: string;
   readonly signInUrl: string;
   readonly seconds: number;
+  /** CPU seconds this process spent (server and simulated respondents share it), user + system. */
+  readonly cpuSeconds: number;
   close(): Promise<void>;
 }
 
@@ -62,12 +69,22 @@ const consentText =
  */
 export async function runDemo(options: DemoOptions = {}): Promise<RunningDemo> {
   const started = performance.now();
+  const cpuStart = process.cpuUsage();
   const print = options.print ?? ((line: string) => console.log(line));
   const file = path.resolve(options.databaseFile ?? path.join('data', 'demo.db'));
   mkdirSync(path.dirname(file), { recursive: true });
   for (const suffix of ['', '-wal', '-shm', '-journal']) rmSync(`${file}${suffix}`, { force: true });
   const adminToken = randomBytes(18).toString('base64url');
-  const env = { ...process.env, ADMIN_TOKEN: adminToken, SQLITE_SYNC: 'normal', LOG_LEVEL: 'warn' };
+  // Simulated data, deleted by the next run: fewer disk flushes (SQLITE_SYNC=normal; production keeps
+  // full), and no per-address rate limits (all 520 simulated respondents come from this process).
+  const env = {
+    ...process.env,
+    ADMIN_TOKEN: adminToken,
+    SQLITE_SYNC: 'normal',
+    LOG_LEVEL: 'warn',
+    RATE_LIMIT_JOIN: '0',
+    RATE_LIMIT_ANSWERS: '0',
+  };
   const config: Config = loadConfig(env, {
     databaseUrl: `sqlite:${file}`,
     ...(options.port === undefined ? {} : { port: String(options.port) }),
@@ -75,7 +92,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<RunningDemo> {
   const bank = await openBank(config.itemsDir);
   const db = await openDatabase(config);
   await recordItemVersions(db, bank);
-  const app = await buildApp({ config, db, bank, itemView: cachedItemViews(bank), logger: false });
+  const app = await buildApp({ config, db, bank, logger: false });
   let address: string;
   try {
     address = await app.listen({ port: config.port, host: config.host });
@@ -93,6 +110,8 @@ export async function runDemo(options: DemoOptions = {}): Promise<RunningDemo> {
     const reportUrl = `${baseUrl}/studies/${result.studyId}/report`;
     const signInUrl = `${baseUrl}/sign-in?next=${encodeURIComponent(`/studies/${result.studyId}/report`)}#token=${adminToken}`;
     const seconds = (performance.now() - started) / 1000;
+    const cpu = process.cpuUsage(cpuStart);
+    const cpuSeconds = (cpu.user + cpu.system) / 1e6;
     return {
       app,
       db,
@@ -104,6 +123,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<RunningDemo> {
       reportUrl,
       signInUrl,
       seconds,
+      cpuSeconds,
       close,
     };
   } catch (error) {
@@ -146,11 +166,13 @@ async function populate(
       design: 'rotated',
       maxItems: 12,
       consentText,
+      background: [worksWithDataQuestion],
       endSummary: true,
     },
     adminToken,
   );
   const studyId = study.id as string;
+  const difItems = injectedDifItems(pool.map((item) => item.id));
   const random = seededRandom(options.seed ?? 2031);
   const audience = simulateAbilities(random).map((entry) => ({
     ...entry,
@@ -161,8 +183,12 @@ async function populate(
   }));
   const people = audience.reduce((s, a) => s + a.abilities.length, 0);
   print(`plotgauge demo: ${people} simulated respondents answer ${pool.length} items through the HTTP API…`);
+  print(
+    '  (simulated data: the demo database is written with SQLITE_SYNC=normal; production default is full)',
+  );
   let done = 0;
   let tryUrl = baseUrl;
+  const began = performance.now();
   for (const { cohort, abilities } of audience) {
     const created = await callApi(
       baseUrl,
@@ -177,6 +203,7 @@ async function populate(
     const queue = abilities.map((ability, index) => ({
       ability,
       seed: (options.seed ?? 2031) * 7919 + done + index,
+      worksWithData: simulateWorksWithData(random),
     }));
     const workers = Array.from({ length: options.concurrency ?? 8 }, async () => {
       for (let next = queue.shift(); next; next = queue.shift()) {
@@ -184,18 +211,24 @@ async function populate(
           baseUrl,
           joinCode,
           next.ability,
-          difficultyOf,
+          difficultiesFor(next.worksWithData, difficultyOf, difItems),
           bank,
           seededRandom(next.seed),
+          { [worksWithDataQuestion.id]: next.worksWithData },
         );
       }
     });
     await Promise.all(workers);
     done += abilities.length;
-    print(`  ${cohort.label}: ${abilities.length} answered`);
+    print(
+      `  ${cohort.label}: ${abilities.length} answered (${((performance.now() - began) / 1000).toFixed(1)} s so far)`,
+    );
   }
+  const answeredAt = performance.now();
   const calibration = await calibrateStudy(db, studyId);
-  print(`  calibrated ${calibration.items.length} items (${calibration.record.id})`);
+  print(
+    `  calibrated ${calibration.items.length} items (${calibration.record.id}) in ${((performance.now() - answeredAt) / 1000).toFixed(1)} s`,
+  );
   return { studyId, tryUrl };
 }
 

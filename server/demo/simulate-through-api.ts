@@ -33,7 +33,8 @@ interface AttemptView {
 
 /**
  * One simulated respondent through the real respondent API: join with the cohort's code, agree, then
- * answer each question the server shows until it says finished. Right answers are the key's options;
+ * answer the background questions (`background`, when the study asks), then each question the server
+ * shows until it says finished. Right answers are the key's options;
  * a wrong answer is an option outside the key; "I don't know" is sent as its own answer kind.
  *
  * @returns the number of answers sent
@@ -45,6 +46,7 @@ export async function simulateRespondent(
   difficultyOf: ReadonlyMap<string, number>,
   bank: ItemBank,
   random: SeededRandom,
+  background: Readonly<Record<string, string>> = {},
 ): Promise<number> {
   const joined = await callApi(baseUrl, 'POST', '/api/join', { code: joinCode });
   const token = joined.token as string;
@@ -55,6 +57,15 @@ export async function simulateRespondent(
     { agree: true },
     token,
   )) as unknown as AttemptView;
+  if (state.step === 'background') {
+    state = (await callApi(
+      baseUrl,
+      'POST',
+      '/api/attempt/background',
+      { answers: background },
+      token,
+    )) as unknown as AttemptView;
+  }
   let answers = 0;
   while (state.step === 'item' && state.item) {
     const itemId = state.item.itemId;

@@ -15,7 +15,9 @@ import {
   getStudy,
 } from '../delivery/study-service.js';
 import { studySettingsSchema } from '../delivery/study-settings.js';
-import { adminGuard } from './auth.js';
+import { AppError } from '../errors.js';
+import { eraseAttempt } from '../storage/erasure-repository.js';
+import { actorOf } from './access-control.js';
 import { errorBodySchema } from './schemas.js';
 
 const studySchema = z.object({
@@ -42,8 +44,9 @@ const cohortParams = studyParams.extend({ cohortId: z.string().min(1).max(100) }
 const errors = { 400: errorBodySchema, 401: errorBodySchema, 404: errorBodySchema, 409: errorBodySchema };
 
 /**
- * The admin API: studies, cohorts with join codes and QR codes, exports. Every request needs the
- * admin bearer token (`ADMIN_TOKEN`); every change is written to the audit log as 'admin-token'.
+ * The admin API: studies, cohorts with join codes and QR codes, exports. Who may call what is
+ * decided by the access check (server/http/access-policy.ts); every change is written to the audit
+ * log with the token's label as actor.
  */
 export const adminRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: Config }> = async (
   app,
@@ -51,7 +54,6 @@ export const adminRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: Co
 ) => {
   const db = app.db;
   const baseUrl = publicBaseUrl(config);
-  app.addHook('preHandler', adminGuard(config.adminToken));
 
   app.post(
     '/api/admin/studies',
@@ -66,7 +68,7 @@ export const adminRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: Co
     async (request, reply) => {
       const study = await db
         .transaction()
-        .execute((trx) => createStudy(trx, bank, request.body, 'admin-token'));
+        .execute((trx) => createStudy(trx, bank, request.body, actorOf(request)));
       return reply.code(201).send(study);
     },
   );
@@ -121,7 +123,7 @@ export const adminRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: Co
     async (request) =>
       db
         .transaction()
-        .execute((trx) => changeStudy(trx, bank, request.params.studyId, request.body, 'admin-token')),
+        .execute((trx) => changeStudy(trx, bank, request.params.studyId, request.body, actorOf(request))),
   );
 
   app.post(
@@ -138,7 +140,9 @@ export const adminRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: Co
     async (request, reply) => {
       const cohort = await db
         .transaction()
-        .execute((trx) => addCohort(trx, request.params.studyId, request.body.label, 'admin-token', baseUrl));
+        .execute((trx) =>
+          addCohort(trx, request.params.studyId, request.body.label, actorOf(request), baseUrl),
+        );
       return reply.code(201).send(cohort);
     },
   );
@@ -189,6 +193,25 @@ export const adminRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: Co
         .header('content-disposition', `attachment; filename="responses-${request.query.format}.csv"`)
         .serializer((payload: unknown) => payload as string)
         .send(csv);
+    },
+  );
+
+  app.delete(
+    '/api/admin/attempts/:attemptId',
+    {
+      schema: {
+        summary: "Erase one person's attempt and answers; the audit log records that it happened",
+        tags: ['admin'],
+        params: z.object({ attemptId: z.string().min(1).max(100) }),
+        response: { 200: z.object({ attemptId: z.string(), responses: z.number().int() }), ...errors },
+      },
+    },
+    async (request) => {
+      const erased = await db
+        .transaction()
+        .execute((trx) => eraseAttempt(trx, request.params.attemptId, actorOf(request)));
+      if (erased === undefined) throw new AppError('ATTEMPT_NOT_FOUND', 'There is no attempt with this id.');
+      return erased;
     },
   );
 };

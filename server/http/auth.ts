@@ -1,6 +1,5 @@
 import { createHash, timingSafeEqual } from 'node:crypto';
 import type { FastifyRequest } from 'fastify';
-import { AppError } from '../errors.js';
 
 /** The token of an `Authorization: Bearer <token>` header, or undefined. */
 export function bearerToken(request: FastifyRequest): string | undefined {
@@ -20,23 +19,4 @@ function digest(text: string): Buffer {
  */
 export function secretsEqual(given: string, expected: string): boolean {
   return timingSafeEqual(digest(given), digest(expected));
-}
-
-/**
- * A preHandler for the admin API: the bearer token must equal `adminToken`. Without an
- * `adminToken` configured every admin request is refused with a message saying how to enable it.
- */
-export function adminGuard(adminToken: string | undefined) {
-  return async (request: FastifyRequest): Promise<void> => {
-    if (adminToken === undefined) {
-      throw new AppError(
-        'UNAUTHORIZED',
-        'The admin API is off: set ADMIN_TOKEN (16+ characters) and restart.',
-      );
-    }
-    const token = bearerToken(request);
-    if (token === undefined || !secretsEqual(token, adminToken)) {
-      throw new AppError('UNAUTHORIZED', 'Send the admin token as Authorization: Bearer <token>.');
-    }
-  };
 }

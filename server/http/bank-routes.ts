@@ -6,16 +6,17 @@ import { taskLevels } from '../bank/item-schema.js';
 import type { ItemBank } from '../bank/load-bank.js';
 import { chartTypes } from '../charts/chart-spec.js';
 import { galleryCss, renderBankGallery } from '../pages/bank-gallery.js';
-import { consoleApiGuard, consolePageGuard } from './console-auth.js';
+import { accessControl } from './access-control.js';
 import { errorBodySchema } from './schemas.js';
 
 export interface BankRoutesOptions {
   readonly bank: ItemBank;
   /**
-   * The admin token. The gallery shows every key and rationale, so it is for the team only: a
-   * browser signed in at /sign-in (console cookie) or a request with the bearer token.
+   * The gallery shows every key and rationale, so it is for the team only (analyst or admin; see
+   * server/http/access-policy.ts). Inside the app the app's access check covers it; registered on its
+   * own (tests), the plugin adds that check itself with this ADMIN_TOKEN.
    */
-  readonly adminToken: string | undefined;
+  readonly adminToken?: string | undefined;
   /** Draws one chart; default the chart layer's renderChart with the bank's maps bound. */
   readonly render?: ChartRenderer;
 }
@@ -50,8 +51,9 @@ const svgPath = /^(.+)\.svg$/;
 export async function bankRoutes(app: FastifyInstance, options: BankRoutesOptions): Promise<void> {
   const { bank } = options;
   const render = options.render ?? bankChartRenderer(bank.maps);
-  const pageGuard = consolePageGuard(options.adminToken);
-  const apiGuard = consoleApiGuard(options.adminToken);
+  if (!app.hasPlugin('plotgauge-access-control')) {
+    await app.register(accessControl, { adminToken: options.adminToken });
+  }
   const textAnswer = {
     200: z.string(),
     303: z.null(),
@@ -60,25 +62,21 @@ export async function bankRoutes(app: FastifyInstance, options: BankRoutesOption
     404: errorBodySchema,
   };
 
-  app.get(
-    '/bank',
-    { preHandler: pageGuard, schema: { hide: true, response: textAnswer } },
-    async (request, reply) => {
-      const parsed = galleryQuerySchema.safeParse(request.query);
-      if (!parsed.success) {
-        return reply.code(400).send({
-          error: {
-            code: 'VALIDATION_FAILED',
-            message: 'the gallery filters are not valid',
-            details: {
-              issues: parsed.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message })),
-            },
+  app.get('/bank', { schema: { hide: true, response: textAnswer } }, async (request, reply) => {
+    const parsed = galleryQuerySchema.safeParse(request.query);
+    if (!parsed.success) {
+      return reply.code(400).send({
+        error: {
+          code: 'VALIDATION_FAILED',
+          message: 'the gallery filters are not valid',
+          details: {
+            issues: parsed.error.issues.map((i) => ({ path: i.path.join('.'), message: i.message })),
           },
-        });
-      }
-      return reply.type('text/html; charset=utf-8').send(renderBankGallery(bank, parsed.data, render));
-    },
-  );
+        },
+      });
+    }
+    return reply.type('text/html; charset=utf-8').send(renderBankGallery(bank, parsed.data, render));
+  });
 
   app.get(
     '/bank/gallery.css',
@@ -88,7 +86,7 @@ export async function bankRoutes(app: FastifyInstance, options: BankRoutesOption
 
   app.get<{ Params: { file: string } }>(
     '/bank/:file',
-    { preHandler: apiGuard, schema: { hide: true, response: textAnswer } },
+    { schema: { hide: true, response: textAnswer } },
     async (request, reply) => {
       const match = svgPath.exec(request.params.file);
       const id = match?.[1] ?? request.params.file;

@@ -10,30 +10,11 @@ import { AppError } from '../errors.js';
 import { renderRespondentPage } from '../pages/respondent-page.js';
 import { renderStartPage } from '../pages/start-page.js';
 import { en, type Strings } from '../pages/strings/en.js';
+import { accessHeaders } from './access-headers.js';
 import { errorBodySchema } from './schemas.js';
 
-/**
- * The Content-Security-Policy of every page: nothing from elsewhere, no inline script or style,
- * no framing, forms and fetches only to this server. Chart SVGs inline in the page use
- * presentation attributes (fill=...), which this policy allows; style="" attributes it would block.
- */
-export const contentSecurityPolicy = [
-  "default-src 'none'",
-  "script-src 'self'",
-  "style-src 'self'",
-  "img-src 'self' data:",
-  "connect-src 'self'",
-  "form-action 'self'",
-  "frame-ancestors 'none'",
-  "base-uri 'none'",
-].join('; ');
-
-/** Headers sent with every page and asset. */
-export const securityHeaders: Readonly<Record<string, string>> = {
-  'content-security-policy': contentSecurityPolicy,
-  'x-content-type-options': 'nosniff',
-  'referrer-policy': 'no-referrer',
-};
+/** The policy and headers of every page, sent by one mechanism (server/http/access-headers.ts). */
+export { contentSecurityPolicy, securityHeaders } from './access-headers.js';
 
 /** One static file, read once at start-up. */
 interface Asset {
@@ -86,10 +67,8 @@ export const pageRoutes: FastifyPluginAsyncZod<PageRoutesOptions> = async (app, 
   const strings = options.strings ?? en;
   const assets = loadAssets(options.assetsFolder ?? assetsFolder);
 
-  app.addHook('onSend', async (_request, reply, payload) => {
-    reply.headers(securityHeaders);
-    return payload;
-  });
+  // Inside the app the app's security headers cover these pages; on its own (tests) it adds them.
+  if (!app.hasPlugin('plotgauge-security-headers')) await app.register(accessHeaders);
 
   app.get(
     '/',

@@ -13,18 +13,12 @@ import { buildReport } from '../reports/build-report.js';
 import { calibrateStudy } from '../reports/calibrate-study.js';
 import type { ReportItemInfo } from '../reports/compose-report.js';
 import { estimatesToCsv, exportItemParameters, exportPersonEstimates } from '../reports/export-estimates.js';
+import { parseFairnessQuery } from '../reports/fairness-service.js';
 import { reportToCsv } from '../reports/report-rows.js';
 import type { Report } from '../reports/report-types.js';
 import { listCohorts } from '../storage/cohort-repository.js';
-import { secretsEqual } from './auth.js';
-import {
-  consoleApiGuard,
-  consoleCookieHeader,
-  consolePageGuard,
-  safeNextPath,
-  signOutCookieHeader,
-} from './console-auth.js';
-import { securityHeaders } from './page-routes.js';
+import { consoleCookieValue, principalOfToken } from './access-control.js';
+import { consoleCookieHeader, safeNextPath, signOutCookieHeader } from './console-auth.js';
 import { errorBodySchema } from './schemas.js';
 
 const studyParams = z.object({ studyId: z.string().min(1).max(100) });
@@ -36,6 +30,8 @@ const reportQuery = z.strictObject({
     .max(201)
     .regex(/^[^,]+,[^,]+$/, 'must be two cohort ids separated by a comma: from,to')
     .optional(),
+  /** Fairness section: `<question>:<reference answer>,<focal answer>` or `cohorts:<reference>,<focal>`. */
+  fairness: z.string().max(300).optional(),
 });
 const errors = { 400: errorBodySchema, 401: errorBodySchema, 404: errorBodySchema, 409: errorBodySchema };
 const intervalSchema = z.object({ lower: z.number(), upper: z.number() }).nullable();
@@ -100,16 +96,12 @@ function optionsFrom(query: z.infer<typeof reportQuery>) {
   return {
     ...(query.cohort === undefined ? {} : { cohortId: query.cohort }),
     ...(compare === undefined ? {} : { compare }),
+    ...(query.fairness === undefined ? {} : { fairness: parseFairnessQuery(query.fairness) }),
   };
 }
 
 function sendHtml(reply: FastifyReply, status: number, page: string) {
-  return reply
-    .code(status)
-    .headers(securityHeaders)
-    .header('cache-control', 'no-store')
-    .type('text/html; charset=utf-8')
-    .send(page);
+  return reply.code(status).header('cache-control', 'no-store').type('text/html; charset=utf-8').send(page);
 }
 
 function sendCsv(reply: FastifyReply, name: string, csv: string) {
@@ -125,7 +117,7 @@ function sendCsv(reply: FastifyReply, name: string, csv: string) {
  * CSV (`…/report.csv`) and an HTML page (`/studies/:id/report`); the calibration (`POST …/calibrations`);
  * exports of item parameters and person estimates; and the console's sign-in (`/sign-in`). JSON and CSV
  * take the admin bearer token or the console cookie; the page sends a browser without either to the
- * sign-in form.
+ * sign-in form (server/http/access-control.ts decides, for every route).
  */
 export const reportRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: Config }> = async (
   app,
@@ -133,8 +125,6 @@ export const reportRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: C
 ) => {
   const db = app.db;
   const info = reportItemInfo(bank);
-  const apiGuard = consoleApiGuard(config.adminToken);
-  const pageGuard = consolePageGuard(config.adminToken);
   const build = (studyId: string, query: z.infer<typeof reportQuery>): Promise<Report> =>
     buildReport(db, info, studyId, optionsFrom(query));
 
@@ -149,7 +139,6 @@ export const reportRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: C
   app.get(
     '/api/admin/studies/:studyId/report',
     {
-      preHandler: apiGuard,
       schema: {
         summary:
           'Readability report of a study, a cohort (?cohort=) or two cohorts compared (?compare=from,to)',
@@ -167,7 +156,6 @@ export const reportRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: C
   app.get(
     '/api/admin/studies/:studyId/report.csv',
     {
-      preHandler: apiGuard,
       schema: {
         summary: 'The readability report as CSV: one row per number, with its interval',
         tags: ['reports'],
@@ -183,7 +171,6 @@ export const reportRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: C
   app.post(
     '/api/admin/studies/:studyId/calibrations',
     {
-      preHandler: apiGuard,
       schema: {
         summary: 'Calibrate the study now (MML, cohorts as groups) and store the calibration',
         tags: ['reports'],
@@ -217,7 +204,6 @@ export const reportRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: C
   app.get(
     '/api/admin/studies/:studyId/estimates/:what',
     {
-      preHandler: apiGuard,
       schema: {
         summary:
           'Item parameters (items.csv, items.json) or person estimates (persons.csv, persons.json; ?background=true adds background answers)',
@@ -243,7 +229,6 @@ export const reportRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: C
   app.get(
     '/studies/:studyId/report',
     {
-      preHandler: pageGuard,
       schema: {
         summary: 'The readability report as a page (sign in first)',
         tags: ['reports'],
@@ -307,17 +292,14 @@ export const reportRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: C
     },
     async (request, reply) => {
       const next = safeNextPath(request.body.next);
-      if (config.adminToken === undefined || !secretsEqual(request.body.token, config.adminToken)) {
-        const error =
-          config.adminToken === undefined
-            ? 'The reports are off: set ADMIN_TOKEN (16+ characters) and restart.'
-            : 'That token is not right.';
-        return sendHtml(reply, 401, renderSignInPage({ next, error }));
+      const principal = await principalOfToken(request.body.token, { adminToken: config.adminToken, db });
+      if (principal === undefined) {
+        return sendHtml(reply, 401, renderSignInPage({ next, error: 'That token is not right.' }));
       }
       const secure = request.protocol === 'https';
       return reply
         .code(303)
-        .header('set-cookie', consoleCookieHeader(config.adminToken, secure))
+        .header('set-cookie', consoleCookieHeader(consoleCookieValue(principal), secure))
         .header('cache-control', 'no-store')
         .redirect(next, 303);
     },
@@ -343,11 +325,7 @@ export const reportRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: C
     async (request, reply) => {
       const asset = assets.get(request.params.name);
       if (!asset) throw new AppError('NOT_FOUND', 'There is no such file.');
-      return reply
-        .headers(securityHeaders)
-        .header('cache-control', 'public, no-cache')
-        .type(asset.type)
-        .send(asset.body);
+      return reply.header('cache-control', 'public, no-cache').type(asset.type).send(asset.body);
     },
   );
 };

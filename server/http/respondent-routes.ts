@@ -55,7 +55,7 @@ export const respondentRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank }> = a
     async (request, reply) => {
       const { token, state } = await db
         .transaction()
-        .execute((trx) => joinByCode(trx, bank, request.body.code));
+        .execute((trx) => joinByCode(trx, bank, request.body.code, (warning) => request.log.warn(warning)));
       return reply.code(201).send({ token, attempt: state });
     },
   );

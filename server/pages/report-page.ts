@@ -6,6 +6,7 @@ import { renderProfileGrid } from '../reports/pictures/profile-grid.js';
 import type { ReportRow } from '../reports/report-rows.js';
 import { reportRows, rowKey } from '../reports/report-rows.js';
 import type { Interval, Report, ReportAudience } from '../reports/report-types.js';
+import { renderFairnessSection } from './fairness-section-html.js';
 import { html, raw, type SafeHtml } from './html.js';
 
 type Format = 'share' | 'logit' | 'count' | 'ratio' | 'signed-share';
@@ -154,6 +155,7 @@ ${report.calibration.newerResponses > 0 ? html`<p class="notice">${report.calibr
 ${report.audiences.length === 1 ? audienceSection(report, report.audiences[0]!, rows) : ''}
 ${comparisonSection(report, rows)}
 ${report.audiences.length > 1 ? report.audiences.map((a) => audienceSection(report, a, rows)) : ''}
+${report.fairness ? renderFairnessSection(report.fairness, rows) : ''}
 ${itemSection(report, rows)}
 </main>
 <footer>

@@ -20,6 +20,8 @@ import {
   type StudyCalibration,
 } from './calibrate-study.js';
 import { composeReport, type ReportItemInfo, type ReportOptions } from './compose-report.js';
+import type { FairnessGrouping } from './fairness-section.js';
+import { buildFairnessSection } from './fairness-service.js';
 import type { Report } from './report-types.js';
 
 export interface BuildReportOptions extends ReportOptions {
@@ -30,6 +32,8 @@ export interface BuildReportOptions extends ReportOptions {
   readonly calibrate?: 'when-stale' | 'never';
   /** Options of an on-demand calibration. */
   readonly calibration?: CalibrateStudyOptions;
+  /** Adds the Fairness section (DIF between two answers of a background question, or two cohorts). */
+  readonly fairness?: FairnessGrouping;
 }
 
 /** The study's current calibration: the latest, or a new one when none exists or it is stale. */
@@ -114,7 +118,7 @@ export async function buildReport(
     }
   }
   const responses = await listScoredResponses(db, studyId, record.responsesUntil);
-  return composeReport({
+  const report = composeReport({
     study: { id: study.id, title: study.title },
     cohorts: cohorts.map((c) => ({ id: c.id, label: c.label })),
     calibration,
@@ -124,4 +128,15 @@ export async function buildReport(
     itemInfo,
     options,
   });
+  if (!options.fairness) return report;
+  const fairness = await buildFairnessSection(
+    db,
+    studyId,
+    study.settings,
+    cohorts,
+    calibration,
+    responses,
+    options.fairness,
+  );
+  return { ...report, fairness };
 }

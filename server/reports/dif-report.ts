@@ -4,6 +4,31 @@ import { type RaschDifItem, raschDifContrast } from '../scoring/dif/rasch-dif-co
 import { FOCAL_GROUP, REFERENCE_GROUP, scoreStrata } from '../scoring/dif/score-strata.js';
 import type { ResponseMatrix } from '../scoring/response-matrix.js';
 
+/** The matrix with only the given columns (same rows). */
+function keepColumns(matrix: ResponseMatrix, columns: readonly number[]): ResponseMatrix {
+  const n = matrix.personIds.length;
+  const width = matrix.itemIds.length;
+  const scores = new Uint8Array(n * columns.length);
+  for (let p = 0; p < n; p++) {
+    columns.forEach((c, j) => {
+      scores[p * columns.length + j] = matrix.scores[p * width + c]!;
+    });
+  }
+  return { personIds: matrix.personIds, itemIds: columns.map((c) => matrix.itemIds[c]!), scores };
+}
+
+/** MH of each column, matched on the total over `matching` columns plus the studied one. */
+function mantelHaenszelMatched(
+  matrix: ResponseMatrix,
+  groups: ArrayLike<number>,
+  column: number,
+  matching: ReadonlySet<number> | null,
+): MantelHaenszelResult {
+  if (matching === null) return mantelHaenszel(scoreStrata(matrix, groups, column));
+  const columns = matrix.itemIds.flatMap((_, c) => (c === column || matching.has(c) ? [c] : []));
+  return mantelHaenszel(scoreStrata(keepColumns(matrix, columns), groups, columns.indexOf(column)));
+}
+
 export interface DifReportOptions {
   /** Plain name of the reference group, e.g. "Cohort A". Default "the reference group". */
   readonly referenceLabel?: string;
@@ -11,6 +36,12 @@ export interface DifReportOptions {
   readonly focalLabel?: string;
   /** Items assumed free of DIF for the Rasch alignment (see raschDifContrast). */
   readonly anchorItems?: readonly string[];
+  /**
+   * Two-stage purification of the matching score (default false): after a first screen, each item's
+   * MH strata are formed again from the total score on the items not flagged in the first stage
+   * plus the studied item, so large DIF on a few items does not bias the matching of the others.
+   */
+  readonly purify?: boolean;
 }
 
 export interface DifReportItem {
@@ -44,6 +75,7 @@ const number = (x: number) => (x >= 0 ? `+${x.toFixed(2)}` : x.toFixed(2));
  *
  * @see Holland, P. W., & Thayer, D. T. (1988), in Wainer & Braun (Eds.), Test Validity, ch. 9.
  * @see Zwick, R. (2012). ETS Research Report RR-12-08 (A/B/C rule).
+ * @see Holland & Thayer (1988), the two-step purification of the matching criterion (`purify`; from memory).
  * @param matrix 0/1 responses or MISSING.
  * @param groups per person: 0 reference, 1 focal, any other number to leave out.
  * @param options group labels for the sentences, anchor items.
@@ -69,8 +101,15 @@ export function difReport(
     throw new Error('difReport requires persons in both groups');
   const contrast = raschDifContrast(matrix, groups, { anchorItems: options.anchorItems });
   const raschById = new Map(contrast.items.map((item) => [item.itemId, item]));
+  let matching: Set<number> | null = null;
+  if (options.purify) {
+    const first = matrix.itemIds.map((_, column) =>
+      etsDifClass(mantelHaenszel(scoreStrata(matrix, groups, column))),
+    );
+    matching = new Set(first.flatMap((c, column) => (c === 'A' || c === null ? [column] : [])));
+  }
   const items = matrix.itemIds.map((itemId, column): DifReportItem => {
-    const result = mantelHaenszel(scoreStrata(matrix, groups, column));
+    const result = mantelHaenszelMatched(matrix, groups, column, matching);
     const etsClass = etsDifClass(result);
     const rasch = raschById.get(itemId) ?? null;
     return {
@@ -90,7 +129,7 @@ export function difReport(
       .map((item) => item.itemId),
     method:
       `Differential item functioning between ${reference} (${referencePersons} people) and ${focal} (${focalPersons} people): ` +
-      'Mantel-Haenszel statistics with people matched on their total score, classified A (negligible), B (moderate) or C (large) by the ETS rule; ' +
+      `Mantel-Haenszel statistics with people matched on their total score${matching ? ' (purified: in a second stage the score leaves out the items flagged in the first, except the studied item)' : ''}, classified A (negligible), B (moderate) or C (large) by the ETS rule; ` +
       'Rasch difficulties calibrated separately in each group and aligned on the other items. ' +
       'A flag says an item worked differently for the two groups at the same score; it does not say why.',
   };

@@ -1,4 +1,5 @@
 import { gaussHermite } from '../scoring/quadrature/gauss-hermite.js';
+import type { AbilityDistribution } from '../scoring/statistics/share-at-or-above.js';
 
 /** Gauss–Hermite rules by number of points, computed once: reports call this thousands of times. */
 const rules = new Map<number, { nodes: Float64Array; weights: Float64Array }>();
@@ -11,11 +12,8 @@ function ruleFor(points: number) {
   return rule;
 }
 
-/** A normal ability distribution on the logit scale. */
-export interface AbilityDistribution {
-  readonly mean: number;
-  readonly sd: number;
-}
+/** A normal ability distribution on the logit scale (defined beside shareAtOrAbove in server/scoring). */
+export type { AbilityDistribution };
 
 /**
  * Expected share of an audience answering items correctly: the Rasch success probability

@@ -1,8 +1,8 @@
 import { median } from 'simple-statistics';
 import type { ChartType } from '../charts/chart-spec.js';
+import { responseProbabilityLocation } from '../scoring/rasch/response-probability-location.js';
+import { shareAtOrAbove } from '../scoring/statistics/share-at-or-above.js';
 import { type AbilityDistribution, expectedShareCorrect } from './expected-share-correct.js';
-import { responseProbabilityLocation } from './response-probability-location.js';
-import { shareAtOrAbove } from './share-at-or-above.js';
 
 export type TaskLevel = 'read' | 'interpret' | 'envision';
 

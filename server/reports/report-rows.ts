@@ -1,4 +1,5 @@
 import { stringify } from 'csv-stringify/sync';
+import { fairnessRows } from './fairness-rows.js';
 import type { Interval, Report } from './report-types.js';
 
 /** Columns of the report's CSV, in order. */
@@ -14,7 +15,7 @@ export const reportCsvColumns = [
 
 /** One number (or text) of the report with its interval: a CSV row and an HTML `<data>` key. */
 export interface ReportRow {
-  readonly section: 'calibration' | 'audience' | 'profile' | 'ladder' | 'comparison' | 'item';
+  readonly section: 'calibration' | 'audience' | 'profile' | 'ladder' | 'comparison' | 'item' | 'fairness';
   /** 'all', a cohort id, or '' when the row belongs to no audience. */
   readonly audience: string;
   /** What is measured: '' (the audience itself), `<chartType>/<level>`, or an item id. */
@@ -129,6 +130,7 @@ export function reportRows(report: Report): ReportRow[] {
     add('item', '', item.itemId, 'responses', item.responses);
     add('item', '', item.itemId, 'dont_know_share', item.dontKnowShare);
   }
+  if (report.fairness) rows.push(...fairnessRows(report.fairness));
   return rows;
 }
 

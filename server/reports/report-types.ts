@@ -5,6 +5,7 @@
  */
 import type { ChartType } from '../charts/chart-spec.js';
 import type { UncalibratedItem } from './calibrate-study.js';
+import type { FairnessSection } from './fairness-section.js';
 import type { TaskLevel } from './readability-profile.js';
 
 /** A confidence interval (percentile bootstrap); null when the calibration has no replicates. */
@@ -138,6 +139,8 @@ export interface Report {
   readonly audiences: readonly ReportAudience[];
   readonly comparison: ReportComparison | null;
   readonly items: readonly ReportItem[];
+  /** DIF between two groups, when the report was asked for it (see fairness-section.ts). */
+  readonly fairness?: FairnessSection;
   /** Method, thresholds, calibration and caution, in words. */
   readonly foot: { method: string; thresholds: string; calibration: string; caution: string };
 }

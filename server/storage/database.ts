@@ -106,7 +106,38 @@ export interface AuditLogTable {
   details: string;
 }
 
+export interface AccessTokensTable {
+  id: string;
+  /** Who holds it, e.g. "analysis laptop"; the audit log's actor for changes made with it. */
+  label: string;
+  role: 'admin' | 'analyst';
+  /** SHA-256 (hex) of the token; the token itself is printed once and never stored. */
+  token_hash: string;
+  created_at: string;
+  last_used_at: string | null;
+  revoked_at: string | null;
+}
+
+/** A pilot chart of a study (see migrations/…-create-pilot-items.ts). */
+export interface PilotItemsTable {
+  id: string;
+  study_id: string;
+  prompt: string;
+  alt: string;
+  /** JSON: [{ id, text }]. */
+  options: string;
+  /** JSON: the keyed option id. */
+  key: string;
+  media_type: 'image/svg+xml' | 'image/png';
+  /** base64 of the stored image bytes (SVG already sanitized). */
+  image: string;
+  min_responses: number;
+  status: 'active' | 'retired';
+  created_at: string;
+}
+
 export interface Database {
+  access_tokens: AccessTokensTable;
   items: ItemsTable;
   studies: StudiesTable;
   cohorts: CohortsTable;
@@ -115,6 +146,7 @@ export interface Database {
   calibrations: CalibrationsTable;
   calibration_items: CalibrationItemsTable;
   audit_log: AuditLogTable;
+  pilot_items: PilotItemsTable;
 }
 
 export type ItemRow = Selectable<ItemsTable>;

@@ -8,12 +8,13 @@ import { AppError } from '../../server/errors.js';
 import { buildTestApp } from '../helpers/build-test-app.js';
 import { type TestDatabase, testEngines } from '../helpers/test-databases.js';
 
-/** Routes added only in this test, to exercise the one error handler through real requests. */
+/** Routes added only in this test, to exercise the one error handler through real requests (public: no token). */
 function addProbeRoutes(app: FastifyInstance) {
   const typed = app.withTypeProvider<ZodTypeProvider>();
   typed.post(
     '/probe/:count',
     {
+      config: { access: 'public' },
       schema: {
         params: z.object({ count: z.coerce.number().int().min(1) }),
         body: z.object({ title: z.string().min(1), size: z.number().max(10) }),
@@ -22,15 +23,19 @@ function addProbeRoutes(app: FastifyInstance) {
     },
     async () => ({ ok: true }),
   );
-  typed.get('/probe-conflict', async () => {
+  typed.get('/probe-conflict', { config: { access: 'public' } }, async () => {
     throw new AppError('CONFLICT', 'That answer differs from the one already stored.', { item: 'x' });
   });
-  typed.get('/probe-crash', async () => {
+  typed.get('/probe-crash', { config: { access: 'public' } }, async () => {
     throw new Error('SELECT secret FROM table -- internal detail');
   });
-  typed.get('/probe-bad-output', { schema: { response: { 200: z.object({ n: z.number() }) } } }, async () => {
-    return { n: 'not a number' } as unknown as { n: number };
-  });
+  typed.get(
+    '/probe-bad-output',
+    { config: { access: 'public' }, schema: { response: { 200: z.object({ n: z.number() }) } } },
+    async () => {
+      return { n: 'not a number' } as unknown as { n: number };
+    },
+  );
 }
 
 const [sqlite] = testEngines();

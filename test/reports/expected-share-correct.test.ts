@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { expectedShareCorrect } from '../../server/reports/expected-share-correct.js';
-import { shareAtOrAbove } from '../../server/reports/share-at-or-above.js';
+import { shareAtOrAbove } from '../../server/scoring/statistics/share-at-or-above.js';
 import { createRandom, normalSample } from '../helpers/random.js';
 import pnorm from '../reference/pnorm.json' with { type: 'json' };
 

@@ -1,7 +1,7 @@
 import { describe, expect, it } from 'vitest';
 import { complexityLadder } from '../../server/reports/complexity-ladder.js';
 import { type ProfileItem, readabilityProfile } from '../../server/reports/readability-profile.js';
-import { shareAtOrAbove } from '../../server/reports/share-at-or-above.js';
+import { shareAtOrAbove } from '../../server/scoring/statistics/share-at-or-above.js';
 
 const items: ProfileItem[] = [
   { itemId: 'b1', chartType: 'bar', level: 'read', difficulty: -2.4 },

@@ -49,12 +49,14 @@ for (const engine of testEngines()) {
       expect(await pendingMigrations(database.db)).toEqual([]);
       shapes[engine.engine] = await schemaShape(database.db);
       expect(Object.keys(shapes[engine.engine] ?? {}).sort()).toEqual([
+        'access_tokens',
         'attempts',
         'audit_log',
         'calibration_items',
         'calibrations',
         'cohorts',
         'items',
+        'pilot_items',
         'responses',
         'studies',
       ]);

@@ -44,7 +44,7 @@ export function renderProfileGrid(
   const cellWidth = 120;
   const cellHeight = 34;
   const top = 40;
-  const legendHeight = 56;
+  const legendHeight = 80;
   const width = labelWidth + cellWidth * levels.length + theme.padding * 2;
   const height = top + cellHeight * types.length + legendHeight + theme.padding;
   const body: string[] = [];
@@ -112,20 +112,21 @@ export function renderProfileGrid(
   body.push(
     textElement(
       'text',
-      { x: theme.padding, y: legendY + 17, 'font-size': theme.fontSize.note, fill: theme.colours.text },
+      { x: theme.padding, y: legendY + 4, 'font-size': theme.fontSize.note, fill: theme.colours.text },
       'share who can handle it:',
     ),
   );
   profileBands.forEach((start, index) => {
-    const x = labelWidth - 40 + index * 76;
+    // Swatches on their own row under the label, wide enough for "80–100%" in large bold text.
+    const x = theme.padding + index * 104;
     const end = profileBands[index + 1] ?? 1;
     const fill = ramp[index]!;
     body.push(
       element('rect', {
         x,
-        y: legendY,
-        width: 72,
-        height: 24,
+        y: legendY + 14,
+        width: 100,
+        height: 28,
         fill,
         stroke: theme.colours.outline,
         'stroke-width': 0.5,
@@ -133,8 +134,8 @@ export function renderProfileGrid(
       textElement(
         'text',
         {
-          x: x + 36,
-          y: legendY + 18,
+          x: x + 50,
+          y: legendY + 35,
           'text-anchor': 'middle',
           'font-size': largeTextSize,
           'font-weight': 'bold',

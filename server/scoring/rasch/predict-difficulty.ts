@@ -1,8 +1,7 @@
-import type { AbilityDistribution } from '../../reports/expected-share-correct.js';
-import { responseProbabilityLocation } from '../../reports/response-probability-location.js';
-import { shareAtOrAbove } from '../../reports/share-at-or-above.js';
+import { type AbilityDistribution, shareAtOrAbove } from '../statistics/share-at-or-above.js';
 import { standardNormalCdf } from '../statistics/standard-normal-cdf.js';
 import type { LltmCalibration } from './calibrate-lltm.js';
+import { responseProbabilityLocation } from './response-probability-location.js';
 
 export interface PredictDifficultyOptions {
   /** Coverage of the intervals. Default 0.95. */

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { responseProbabilityLocation } from '../../server/reports/response-probability-location.js';
+import { responseProbabilityLocation } from '../../../server/scoring/rasch/response-probability-location.js';
 
 describe('responseProbabilityLocation', () => {
   // Offsets θ_RP − b = ln(RP/(1−RP)) for the RP conventions in use (NAEP item maps 0.65/0.72/0.74,

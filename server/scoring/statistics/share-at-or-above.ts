@@ -1,5 +1,10 @@
-import { standardNormalCdf } from '../scoring/statistics/standard-normal-cdf.js';
-import type { AbilityDistribution } from './expected-share-correct.js';
+import { standardNormalCdf } from './standard-normal-cdf.js';
+
+/** A normal ability distribution on the logit scale. */
+export interface AbilityDistribution {
+  readonly mean: number;
+  readonly sd: number;
+}
 
 /**
  * Share of a normal ability distribution at or above a location: 1 − Φ((θ₀ − μ)/σ).

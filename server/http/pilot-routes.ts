@@ -1,0 +1,133 @@
+import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
+import { z } from 'zod';
+import { loadAttempt } from '../delivery/attempt-service.js';
+import {
+  addPilot,
+  pilotImageHeaders,
+  pilotInputSchema,
+  pilotSummary,
+  requirePilotOfStudy,
+} from '../delivery/pilots/pilot-service.js';
+import { requireStudy } from '../delivery/study-service.js';
+import { findPilotById, listPilots } from '../storage/pilot-repository.js';
+import { actorOf } from './access-control.js';
+import { bearerToken } from './auth.js';
+import { errorBodySchema } from './schemas.js';
+
+/** A pilot body: base64 of at most 256 KiB, plus text. */
+export const pilotBodyLimit = 400 * 1024;
+
+const pilotSchema = z.object({
+  id: z.string(),
+  studyId: z.string(),
+  prompt: z.string(),
+  alt: z.string(),
+  options: z.array(z.object({ id: z.string(), text: z.string() })),
+  key: z.string(),
+  mediaType: z.string(),
+  bytes: z.number(),
+  minResponses: z.number(),
+  status: z.string(),
+  createdAt: z.string(),
+  sanitized: z.boolean().optional(),
+});
+const studyParams = z.object({ studyId: z.string().min(1).max(100) });
+const pilotParams = studyParams.extend({ pilotId: z.string().min(1).max(100) });
+const errors = {
+  400: errorBodySchema,
+  401: errorBodySchema,
+  403: errorBodySchema,
+  404: errorBodySchema,
+  409: errorBodySchema,
+  413: errorBodySchema,
+  415: errorBodySchema,
+};
+
+/**
+ * Pilot items (see DEVELOPERS.md, "Adaptive delivery and pilots"): admins add and list a study's
+ * pilots (default admin access under /api/admin/), and preview the stored image; respondents fetch
+ * a pilot image of their own attempt's study with the attempt token. Images are always sent with
+ * their own content type, `Content-Security-Policy: default-src 'none'; style-src 'unsafe-inline'`
+ * and `X-Content-Type-Options: nosniff`.
+ */
+export const pilotRoutes: FastifyPluginAsyncZod = async (app) => {
+  const db = app.db;
+
+  app.post(
+    '/api/admin/studies/:studyId/pilots',
+    {
+      bodyLimit: pilotBodyLimit,
+      schema: {
+        summary: 'Add a pilot chart (SVG or PNG, base64) with prompt, options and key',
+        tags: ['admin'],
+        params: studyParams,
+        body: pilotInputSchema,
+        response: { 201: pilotSchema, ...errors },
+      },
+    },
+    async (request, reply) => {
+      const pilot = await db
+        .transaction()
+        .execute((trx) => addPilot(trx, request.params.studyId, request.body, actorOf(request)));
+      return reply.code(201).send(pilot);
+    },
+  );
+
+  app.get(
+    '/api/admin/studies/:studyId/pilots',
+    {
+      config: { access: 'analyst' },
+      schema: {
+        summary: "List a study's pilots",
+        tags: ['admin'],
+        params: studyParams,
+        response: { 200: z.array(pilotSchema), ...errors },
+      },
+    },
+    async (request) => {
+      await requireStudy(db, request.params.studyId);
+      return (await listPilots(db, request.params.studyId)).map(pilotSummary);
+    },
+  );
+
+  app.get(
+    '/api/admin/studies/:studyId/pilots/:pilotId/image',
+    {
+      config: { access: 'analyst' },
+      schema: {
+        summary: "A pilot's stored image",
+        tags: ['admin'],
+        params: pilotParams,
+        // The image bytes (SVG or PNG) are sent as a Buffer, which fastify does not serialize.
+        response: { 200: z.unknown(), ...errors },
+      },
+    },
+    async (request, reply) => {
+      const pilot = requirePilotOfStudy(
+        await findPilotById(db, request.params.pilotId),
+        request.params.studyId,
+      );
+      return reply.headers(pilotImageHeaders(pilot)).send(pilot.image);
+    },
+  );
+
+  app.get(
+    '/api/attempt/pilots/:pilotId/image',
+    {
+      config: { access: 'respondent' },
+      schema: {
+        summary: "A pilot image of the attempt's study (attempt token)",
+        tags: ['respondent'],
+        params: z.object({ pilotId: z.string().min(1).max(100) }),
+        response: { 200: z.unknown(), ...errors },
+      },
+    },
+    async (request, reply) => {
+      const pilot = await db.transaction().execute(async (trx) => {
+        const context = await loadAttempt(trx, bearerToken(request));
+        return requirePilotOfStudy(await findPilotById(trx, request.params.pilotId), context.study.id);
+      });
+      return reply.headers(pilotImageHeaders(pilot)).send(pilot.image);
+    },
+  );
+};
