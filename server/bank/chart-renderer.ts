@@ -10,6 +10,6 @@ export interface ChartDrawOptions {
 
 /**
  * Draws one chart as an SVG string. The bank does not draw charts itself: callers pass a renderer
- * (the chart layer's, with the bank's stored maps bound; or a stub in tests).
+ * (the chart layer's, with the bank's stored maps bound; or a small fake in tests).
  */
 export type ChartRenderer = (spec: ChartSpec, options: ChartDrawOptions) => string;
