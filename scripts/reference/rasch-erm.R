@@ -20,31 +20,7 @@ args <- commandArgs(trailingOnly = TRUE)
 out_dir <- if (length(args) >= 1) args[1] else "test/reference"
 dir.create(out_dir, showWarnings = FALSE, recursive = TRUE)
 
-# --- a minimal JSON writer (jsonlite is not in the Debian set we install) ---
-num <- function(x) {
-  ifelse(is.na(x), "null", ifelse(is.infinite(x), ifelse(x > 0, "\"Infinity\"", "\"-Infinity\""),
-    sprintf("%.12g", x)))
-}
-json <- function(x, indent = "") {
-  inner <- paste0(indent, "  ")
-  if (is.list(x)) {
-    keys <- names(x)
-    if (is.null(keys)) {
-      items <- vapply(x, json, "", indent = inner)
-      return(paste0("[\n", inner, paste(items, collapse = paste0(",\n", inner)), "\n", indent, "]"))
-    }
-    items <- vapply(seq_along(x), function(i) paste0("\"", keys[i], "\": ", json(x[[i]], inner)), "")
-    return(paste0("{\n", inner, paste(items, collapse = paste0(",\n", inner)), "\n", indent, "}"))
-  }
-  if (is.character(x)) {
-    s <- paste0("\"", gsub("\"", "\\\\\"", x), "\"")
-    return(if (length(x) == 1 && is.null(attr(x, "array"))) s else paste0("[", paste(s, collapse = ", "), "]"))
-  }
-  if (is.logical(x) && length(x) == 1) return(if (x) "true" else "false")
-  s <- num(as.numeric(x))
-  if (length(x) == 1 && is.null(attr(x, "array"))) s else paste0("[", paste(s, collapse = ", "), "]")
-}
-arr <- function(x) structure(x, array = TRUE)
+source(file.path(dirname(sub("^--file=", "", grep("^--file=", commandArgs(FALSE), value = TRUE))), "json-writer.R"))
 
 rows_of <- function(X) {
   apply(X, 1, function(r) paste(ifelse(is.na(r), ".", as.character(r)), collapse = ""))

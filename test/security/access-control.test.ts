@@ -1,7 +1,6 @@
 import type { FastifyInstance } from 'fastify';
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import { runCli } from '../../server/main.js';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { createAccessToken, hashToken, revokeAccessToken } from '../../server/storage/token-repository.js';
 import {
   admin,
@@ -12,22 +11,10 @@ import {
   joinAndConsent,
   studyWithCohort,
 } from '../helpers/delivery-fixture.js';
+import { runCliCaptured } from '../helpers/run-cli.js';
 import { type TestDatabase, testEngines } from '../helpers/test-databases.js';
 
-async function cli(args: string[]): Promise<{ code: number; out: string[]; errors: string[] }> {
-  const out: string[] = [];
-  const errors: string[] = [];
-  const log = vi.spyOn(console, 'log').mockImplementation((line: string) => void out.push(String(line)));
-  const error = vi
-    .spyOn(console, 'error')
-    .mockImplementation((line: string) => void errors.push(String(line)));
-  try {
-    return { code: await runCli(args), out, errors };
-  } finally {
-    log.mockRestore();
-    error.mockRestore();
-  }
-}
+const cli = runCliCaptured;
 
 for (const engine of testEngines()) {
   describe.skipIf(engine.skipReason !== undefined)(`${engine.engine}: roles and team tokens`, () => {

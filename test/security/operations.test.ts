@@ -4,9 +4,8 @@ import path from 'node:path';
 import Sqlite from 'better-sqlite3';
 import type { FastifyInstance } from 'fastify';
 import request from 'supertest';
-import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { backupSqlite, integrityOf } from '../../server/cli/backup-command.js';
-import { runCli } from '../../server/main.js';
 import { createAccessToken } from '../../server/storage/token-repository.js';
 import {
   admin,
@@ -16,22 +15,10 @@ import {
   joinAndConsent,
   studyWithCohort,
 } from '../helpers/delivery-fixture.js';
+import { runCliCaptured } from '../helpers/run-cli.js';
 import { type TestDatabase, testEngines } from '../helpers/test-databases.js';
 
-async function cli(args: string[]): Promise<{ code: number; out: string[]; errors: string[] }> {
-  const out: string[] = [];
-  const errors: string[] = [];
-  const log = vi.spyOn(console, 'log').mockImplementation((line: string) => void out.push(String(line)));
-  const error = vi
-    .spyOn(console, 'error')
-    .mockImplementation((line: string) => void errors.push(String(line)));
-  try {
-    return { code: await runCli(args), out, errors };
-  } finally {
-    log.mockRestore();
-    error.mockRestore();
-  }
-}
+const cli = runCliCaptured;
 
 /** Joins, consents and answers the first question; returns the token and the attempt's first item. */
 async function answeredAttempt(app: FastifyInstance, joinCode: string): Promise<string> {
