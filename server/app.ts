@@ -12,13 +12,20 @@ import { accessHeaders } from './http/access-headers.js';
 import { accessLimits } from './http/access-limits.js';
 import { adminRoutes } from './http/admin-routes.js';
 import { bankRoutes } from './http/bank-routes.js';
+import { consoleBankRoutes } from './http/console-bank-routes.js';
+import { cookieWriteGuard } from './http/console-csrf.js';
+import { consoleRoutes } from './http/console-routes.js';
+import { consoleScoringRoutes } from './http/console-scoring-routes.js';
 import { registerErrorHandlers } from './http/error-handler.js';
+import { exposureControlRoutes } from './http/exposure-control-routes.js';
 import { healthRoutes } from './http/health-routes.js';
 import { openapiRoutes } from './http/openapi-routes.js';
 import { pageRoutes } from './http/page-routes.js';
 import { pilotRoutes } from './http/pilot-routes.js';
+import { predictRoutes } from './http/predict-routes.js';
 import { reportRoutes } from './http/report-routes.js';
 import { respondentRoutes } from './http/respondent-routes.js';
+import { rubricScoringRoutes } from './http/rubric-scoring-routes.js';
 import { engineOf } from './storage/create-database.js';
 import type { Database } from './storage/database.js';
 
@@ -75,6 +82,7 @@ export const appPlugin = fp<AppPluginOptions>(
     // Headers first (refusals carry them too), then the one access check: both cover every route.
     await app.register(accessHeaders);
     await app.register(accessControl, { adminToken: config.adminToken, db });
+    await app.register(cookieWriteGuard); // console cookie + change outside /console: CSRF header needed
     await app.register(accessLimits, {
       joinPerMinute: config.rateLimitJoin,
       answersPerMinute: config.rateLimitAnswers,
@@ -96,13 +104,22 @@ export const appPlugin = fp<AppPluginOptions>(
     await app.register(bankRoutes, { bank, render });
     await app.register(pageRoutes);
     await app.register(reportRoutes, { bank: deliveryBank, config });
-    await app.register(pilotRoutes);
+    await app.register(pilotRoutes, { bank });
+    await app.register(predictRoutes, { bank });
+    await app.register(exposureControlRoutes, { bank: deliveryBank });
+    await app.register(consoleRoutes, { bank: deliveryBank, itemBank: bank, config });
+    await app.register(consoleBankRoutes, { bank, deliveryBank, render });
+    await app.register(rubricScoringRoutes, { bank });
+    await app.register(consoleScoringRoutes, { bank });
   },
   { name: 'plotgauge', fastify: '5.x' },
 );
 
 /** Options of the fastify instance itself: logger, body limit, closing behaviour. */
-export function serverOptions(logger: AppDependencies['logger'] = false): FastifyServerOptions {
+export function serverOptions(
+  logger: AppDependencies['logger'] = false,
+  trustProxy?: Config['trustProxy'],
+): FastifyServerOptions {
   return {
     logger:
       logger === false
@@ -110,6 +127,9 @@ export function serverOptions(logger: AppDependencies['logger'] = false): Fastif
         : { ...(typeof logger === 'object' ? logger : {}), serializers: requestLogSerializers },
     bodyLimit: defaultBodyLimit,
     return503OnClosing: true,
+    // TRUST_PROXY (server/config.ts): request.ip, and so the rate limits, follow X-Forwarded-For
+    // only from these proxies; unset, the connection's own address counts.
+    ...(trustProxy === undefined ? {} : { trustProxy }),
   };
 }
 
@@ -121,7 +141,7 @@ export async function buildApp({
   logger = false,
   ...dependencies
 }: AppDependencies): Promise<FastifyInstance> {
-  const app = Fastify(serverOptions(logger));
+  const app = Fastify(serverOptions(logger, dependencies.config.trustProxy));
   await app.register(appPlugin, dependencies);
   return app;
 }

@@ -1,3 +1,4 @@
+import { isIP } from 'node:net';
 import { z } from 'zod';
 
 /**
@@ -13,6 +14,36 @@ const databaseUrlSchema = z
   .refine((value) => /^(sqlite:|postgres:\/\/|postgresql:\/\/)/.test(value), {
     message: 'must start with sqlite: (for example sqlite:./data/plotgauge.db) or postgres://',
   });
+
+/** proxy-addr's (fastify's) names for address ranges, allowed in TRUST_PROXY beside addresses. */
+const proxyRangeNames = ['loopback', 'linklocal', 'uniquelocal'];
+
+function isAddressOrRange(entry: string): boolean {
+  if (proxyRangeNames.includes(entry)) return true;
+  const [address = '', prefix, ...rest] = entry.split('/');
+  const version = isIP(address);
+  if (version === 0 || rest.length > 0) return false;
+  if (prefix === undefined) return true;
+  return /^\d{1,3}$/.test(prefix) && Number(prefix) <= (version === 4 ? 32 : 128);
+}
+
+/**
+ * TRUST_PROXY: the reverse proxies that may name the client (X-Forwarded-For), so rate limits key on
+ * the real client: a comma-separated list of IPs, CIDR ranges, or `loopback`, `linklocal`,
+ * `uniquelocal` (fastify's `trustProxy` as an address list). Refused: `true` (trust everyone: any
+ * client could choose the address it is limited by) and a hop count (fastify 5 no longer honours
+ * one: it cannot check the proxy in front, so it trusts nothing).
+ */
+const trustProxySchema = z.string().transform((value, context): string[] => {
+  const entries = value.split(',').map((entry) => entry.trim());
+  if (entries.every((entry) => entry !== '' && isAddressOrRange(entry))) return entries;
+  context.addIssue({
+    code: 'custom',
+    message:
+      "must list the proxies' addresses or CIDR ranges, comma-separated (e.g. 127.0.0.1 or 10.0.0.0/8); not true and not a hop count",
+  });
+  return z.NEVER;
+});
 
 export const configSchema = z.strictObject({
   port: z.coerce
@@ -50,6 +81,8 @@ export const configSchema = z.strictObject({
     .optional(),
   /** Base of join links and QR codes, e.g. https://survey.example.org; default http://HOST:PORT. */
   publicUrl: z.url({ message: 'must be an http(s) URL' }).optional(),
+  /** Reverse proxies trusted to name the client; unset: none (the connection's address counts). */
+  trustProxy: trustProxySchema.optional(),
 });
 
 export type Config = Readonly<z.infer<typeof configSchema>>;
@@ -91,6 +124,12 @@ export const environmentVariables = {
     name: 'PUBLIC_URL',
     default: '',
     meaning: 'base URL of join links and QR codes; default http://HOST:PORT',
+  },
+  trustProxy: {
+    name: 'TRUST_PROXY',
+    default: '',
+    meaning:
+      'addresses or CIDR ranges of reverse proxies trusted to name the client (X-Forwarded-For); unset: none',
   },
 } as const satisfies Record<keyof Config, { name: string; default: string; meaning: string }>;
 

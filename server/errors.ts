@@ -15,6 +15,7 @@ export const errorCodes = {
   PILOT_NOT_FOUND: { status: 404, meaning: 'no pilot with this id in the study' },
   JOIN_CODE_NOT_FOUND: { status: 404, meaning: 'no cohort has this join code' },
   ATTEMPT_NOT_FOUND: { status: 404, meaning: 'no attempt with this id (or it was erased)' },
+  SCORING_ENTRY_NOT_FOUND: { status: 404, meaning: 'no short-text answer with this scoring queue entry id' },
   CONFLICT: { status: 409, meaning: 'the request contradicts what is already stored' },
   ANSWER_ALREADY_STORED: {
     status: 409,
@@ -39,6 +40,23 @@ export const errorCodes = {
     status: 409,
     meaning:
       'an adaptive study needs a converged calibration of its items; run it fixed or rotated and calibrate first',
+  },
+  RUBRIC_ALREADY_SCORED: {
+    status: 409,
+    meaning: 'this rater has already scored this answer; the first score stands',
+  },
+  RUBRIC_SCORES_COMPLETE: {
+    status: 409,
+    meaning: 'this answer already has all the rubric scores its study asks for',
+  },
+  CALIBRATION_NEEDED: {
+    status: 409,
+    meaning: 'the study has no calibration yet; calibrate it first (plotgauge calibrate --study <id>)',
+  },
+  DESIGN_NOT_ESTIMABLE: {
+    status: 422,
+    meaning:
+      "the chosen design features cannot all be estimated from the study's calibrated items; details name them",
   },
   STUDY_CLOSED: { status: 410, meaning: 'the study is closed; its join codes no longer work' },
   BODY_TOO_LARGE: { status: 413, meaning: 'the body is larger than the route accepts' },

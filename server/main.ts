@@ -16,6 +16,7 @@ import { registerEraseCommand } from './cli/erase-command.js';
 import { registerExportCommand } from './cli/export-command.js';
 import { openBank, recordItemVersions } from './cli/open-bank.js';
 import { openDatabase } from './cli/open-database.js';
+import { registerPredictCommand } from './cli/predict-command.js';
 import { registerReportCommand } from './cli/report-command.js';
 import { registerRestoreCommand } from './cli/restore-command.js';
 import { registerRetentionCommand } from './cli/retention-command.js';
@@ -98,6 +99,7 @@ export function buildProgram(): Command {
   registerCohortCommand(program);
   registerExportCommand(program);
   registerReportCommand(program);
+  registerPredictCommand(program);
   registerDemoCommand(program);
   registerTokenCommand(program);
   registerBackupCommand(program);

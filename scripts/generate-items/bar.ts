@@ -2,7 +2,7 @@
 import type { ChartInput, Draft } from './draft.js';
 import { numberOptions, statements } from './draft.js';
 
-const harvest: ChartInput = {
+export const harvest: ChartInput = {
   type: 'bar',
   title: 'Sprout Lane Garden harvest this year',
   fields: [
@@ -20,7 +20,7 @@ const harvest: ChartInput = {
   gridlines: true,
   valueAxis: { scale: 'linear', domain: [0, 350], tickStep: 50 },
 };
-const harvestAlt =
+export const harvestAlt =
   'A vertical bar chart with four bars, one for each crop: potatoes, beans, squash and kale. The vertical axis shows the harvest from 0 to 350 kilograms with gridlines every 50 kilograms.';
 
 const harbours: ChartInput = {

@@ -5,10 +5,11 @@
  */
 import { type ItemInput, itemSchema } from '../../server/bank/item-schema.js';
 import { resolveKey } from '../../server/bank/resolve-key.js';
-import type { Draft, DraftOption } from './draft.js';
+import type { Draft, DraftOption, RubricKey } from './draft.js';
 
 /** Id of the option that is the key (by the expected answer for read items). */
 export function keyOptionId(draft: Draft): string {
+  if ('rubric' in draft.key) throw new Error(`${draft.id}: a short-text item has no keyed option`);
   if ('option' in draft.key) {
     const id = draft.key.option;
     if (!draft.options.some((o) => o.id === id))
@@ -31,9 +32,41 @@ function placeKey(options: readonly DraftOption[], keyId: string, position: numb
   return options.map((_, i) => options[(i - shift + n) % n]!);
 }
 
+/** A short-text item: free text scored by people with a three-level rubric (no options, no key balancing). */
+function buildShortTextItem(draft: Draft, key: RubricKey): ItemInput {
+  if (draft.options.length > 0) throw new Error(`${draft.id}: a short-text item takes no options`);
+  const item: ItemInput = {
+    id: draft.id,
+    scenario: draft.scenario,
+    status: 'active',
+    level: draft.level,
+    chart: draft.chart,
+    prompt: draft.prompt,
+    response: {
+      kind: 'short-text',
+      maxLength: key.maxLength,
+      rubric: key.rubric.map((description, score) => ({ score: score as 0 | 1 | 2, description })),
+    },
+    key: { by: 'rubric' },
+    alt: draft.alt,
+    rationale: draft.rationale,
+    features: {
+      distractorKinds: [...draft.distractors],
+      ...(draft.multiStep === undefined ? {} : { multiStep: draft.multiStep }),
+    },
+  };
+  const parsed = itemSchema.safeParse(item);
+  if (!parsed.success) {
+    const problems = parsed.error.issues.map((i) => `${i.path.join('.')}: ${i.message}`).join('; ');
+    throw new Error(`${draft.id}: ${problems}`);
+  }
+  return item;
+}
+
 export function buildItems(drafts: readonly Draft[]): ItemInput[] {
   const turn = new Map<number, number>();
   return drafts.map((draft) => {
+    if ('rubric' in draft.key) return buildShortTextItem(draft, draft.key);
     const keyId = keyOptionId(draft);
     const order = draft.order ?? 'any';
     let options = [...draft.options];

@@ -27,6 +27,15 @@ export interface OptionKey {
   readonly option: string;
 }
 
+/**
+ * Short-text items, scored later by people: what an answer scoring 0, 1 and 2 looks like, and the
+ * longest answer accepted. The draft's `options` stay empty.
+ */
+export interface RubricKey {
+  readonly rubric: readonly [string, string, string];
+  readonly maxLength: number;
+}
+
 export interface Draft {
   readonly id: string;
   readonly scenario: ScenarioId;
@@ -36,7 +45,7 @@ export interface Draft {
   readonly options: readonly DraftOption[];
   /** `fixed` for ordered numeric options; `any` (default) lets the writer move the key. */
   readonly order?: 'any' | 'fixed';
-  readonly key: QueryKey | OptionKey;
+  readonly key: QueryKey | OptionKey | RubricKey;
   readonly alt: string;
   readonly rationale: string;
   readonly distractors: readonly DistractorKind[];

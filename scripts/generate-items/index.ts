@@ -27,6 +27,7 @@ import { lineDrafts } from './line.js';
 import { networkDrafts } from './network.js';
 import { pieDrafts } from './pie.js';
 import { scatterDrafts } from './scatter.js';
+import { shortTextDrafts } from './short-text.js';
 import { stackedBarDrafts } from './stacked-bar.js';
 import { symbolMapDrafts } from './symbol-map.js';
 import { tableDrafts } from './table.js';
@@ -49,6 +50,7 @@ export const allDrafts: readonly Draft[] = [
   ...symbolMapDrafts,
   ...networkDrafts,
   ...treemapDrafts,
+  ...shortTextDrafts,
 ];
 
 function main(): void {

@@ -28,7 +28,7 @@ const members: Record<string, readonly number[]> = {
   Adult: [350, 340, 320, 300, 290, 270],
   Child: [150, 160, 150, 140, 160, 150],
 };
-const memberships: ChartInput = {
+export const memberships: ChartInput = {
   type: 'line',
   title: "Members of the Lumen Hall members' club",
   fields: [
@@ -46,7 +46,7 @@ const memberships: ChartInput = {
   gridlines: true,
   valueAxis: { scale: 'linear', domain: [0, 450], tickStep: 50 },
 };
-const membershipsAlt =
+export const membershipsAlt =
   'A line chart with three lines, for family, adult and child memberships, told apart by colour in a legend. The horizontal axis shows the years 2029 to 2034; the vertical axis shows members from 0 to 450.';
 
 const onlineOrders: ChartInput = {

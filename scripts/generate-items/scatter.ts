@@ -50,7 +50,7 @@ const plants: ReadonlyArray<readonly [number, number]> = [
   [8, 4.9],
   [8, 6],
 ];
-const tomatoes: ChartInput = {
+export const tomatoes: ChartInput = {
   type: 'scatter',
   title: 'Sun and tomatoes for 20 plants',
   fields: [
@@ -64,7 +64,7 @@ const tomatoes: ChartInput = {
   xAxis: { scale: 'linear', domain: [2, 10], tickStep: 1 },
   yAxis: { scale: 'linear', domain: [0, 8], tickStep: 1 },
 };
-const tomatoesAlt =
+export const tomatoesAlt =
   'A scatter plot with 20 unlabelled points, one for each tomato plant. The horizontal axis shows hours of sun each day from 2 to 10; the vertical axis shows kilograms of tomatoes picked from 0 to 8, with gridlines every kilogram.';
 
 const boats: ChartInput = {

@@ -28,7 +28,14 @@ export function registerDemoCommand(program: Command): void {
       console.log('');
       console.log(`  Report (open this link to sign in):  ${demo.signInUrl}`);
       console.log(`  Report address:                      ${demo.reportUrl}`);
+      console.log(`  Fairness (works with data, yes/no):  ${demo.fairnessUrl}`);
+      console.log(
+        `  Design check of a planned chart:     npx tsx server/main.ts predict --database ${demo.databaseUrl} --study ${demo.studyId} --chart-type scatter --level interpret --marks 40 --legend yes`,
+      );
       console.log(`  Take the test yourself:              ${demo.tryUrl}  (joins the weekend families)`);
+      console.log(
+        `  The team's console:                  ${new URL('/console', demo.reportUrl).href}  (sign in with the token below)`,
+      );
       console.log(`  Admin token (this run only):         ${demo.adminToken}`);
       console.log('');
       await new Promise<void>((resolve) => {

@@ -22,6 +22,8 @@ import {
   listCalibrationItems,
 } from '../storage/calibration-repository.js';
 import type { DbHandle } from '../storage/db-handle.js';
+import { listCalibrationExposureControls } from '../storage/exposure-control-repository.js';
+import { listRetiredItemIds } from '../storage/item-status-repository.js';
 import { syncItemVersions } from '../storage/item-version-repository.js';
 import { type AdaptiveBank, buildAdaptiveBank } from './adaptive/adaptive-bank.js';
 import { choosePrior } from './adaptive/adaptive-prior.js';
@@ -36,6 +38,11 @@ import { contentAreaOf } from './adaptive/content-area.js';
 import type { AttemptForm } from './attempt-form.js';
 import type { DeliveryBank } from './delivery-bank.js';
 import { selectItemPool } from './select-item-pool.js';
+import {
+  alignExposureControl,
+  exposureControlSettingsHash,
+  exposureControlSettingsOf,
+} from './stored-exposure-control.js';
 import type { StudySettings } from './study-settings.js';
 
 /** The message of ADAPTIVE_NEEDS_CALIBRATION. */
@@ -56,6 +63,13 @@ export interface AdaptiveDelivery {
   readonly notEligible: readonly string[];
   /** Area targets named but without items. */
   readonly emptyAreas: readonly string[];
+  /**
+   * Id of the stored Sympson–Hetter control a new attempt starts with: the newest tuned on this
+   * calibration for these adaptive settings (stored-exposure-control.ts); null = randomesque only.
+   */
+  readonly exposureControlId: string | null;
+  /** K per bank item of every control stored for this calibration, by id (running attempts keep theirs). */
+  readonly exposureControls: ReadonlyMap<string, Float64Array>;
 }
 
 /** The study's adaptive block with defaults filled in. */
@@ -125,9 +139,12 @@ export async function loadAdaptiveDelivery(
     });
   }
   const adaptive = adaptiveSettingsOf(settings);
+  // A new attempt (no calibration chosen yet) leaves retired items out; a running attempt keeps
+  // the pool it started with, so a stored attempt replays exactly.
   const pool = selectItemPool(
     bank.items.map((entry) => entry.item),
     settings.pool,
+    calibrationId === undefined ? await listRetiredItemIds(db) : undefined,
   ).itemIds;
   const versions = await syncItemVersions(
     db,
@@ -173,16 +190,29 @@ export async function loadAdaptiveDelivery(
     });
   }
   const stored = calibration.settings as Partial<StoredCalibrationSettings> | null;
+  const rules = stopRulesFor(adaptive, settings);
+  const settingsHash = exposureControlSettingsHash(exposureControlSettingsOf(adaptive, rules));
+  const controls = await listCalibrationExposureControls(db, calibration.id);
   return {
     calibrationId: calibration.id,
     bank: built.bank,
-    rules: stopRulesFor(adaptive, settings),
+    rules,
     adaptive,
     groups: (stored?.groups ?? []).map((g) => ({ cohortId: g.cohortId, mean: g.mean, sd: g.sd })),
     versions,
     notEligible,
     emptyAreas: built.emptyAreas,
+    exposureControlId: controls.find((c) => c.settingsHash === settingsHash)?.id ?? null,
+    exposureControls: new Map(
+      controls.map((c) => [c.id, alignExposureControl(c.itemParameters, built.bank.ids)]),
+    ),
   };
+}
+
+/** The stop rules with the attempt's exposure control (absent id or unknown id: randomesque only). */
+function rulesWithExposureControl(delivery: AdaptiveDelivery, exposureControlId: string | null | undefined) {
+  const control = exposureControlId ? delivery.exposureControls.get(exposureControlId) : undefined;
+  return control === undefined ? delivery.rules : { ...delivery.rules, exposureControl: control };
 }
 
 /** The uint32 seed of the adaptive engine taken from the attempt's hex seed. */
@@ -206,17 +236,20 @@ export function startAdaptiveForm(
 } {
   const { prior, warning } = choosePrior(cohortId, delivery.groups, delivery.adaptive.defaultPrior);
   const state = startAdaptiveState(prior, adaptiveSeedOf(formSeed));
-  const step = nextStep(state, delivery.bank, delivery.rules, 0);
+  const exposureControlId = delivery.exposureControlId;
+  const step = nextStep(state, delivery.bank, rulesWithExposureControl(delivery, exposureControlId), 0);
+  // The control is recorded only when there is one, so forms without it look as before.
+  const pinned = exposureControlId === null ? {} : { exposureControlId };
   if (step.kind === 'stop') {
     return {
       items: [],
-      adaptive: { state, pending: null, stop: step.reason, calibrationId: delivery.calibrationId },
+      adaptive: { state, pending: null, stop: step.reason, calibrationId: delivery.calibrationId, ...pinned },
       warning,
     };
   }
   return {
     items: [{ itemId: step.itemId, version: delivery.versions.get(step.itemId)! }],
-    adaptive: { state, pending: step, stop: null, calibrationId: delivery.calibrationId },
+    adaptive: { state, pending: step, stop: null, calibrationId: delivery.calibrationId, ...pinned },
     warning,
   };
 }
@@ -237,7 +270,10 @@ export function advanceAdaptiveForm(
   const adaptive = form.adaptive;
   if (adaptive === undefined || adaptive.pending === null) return;
   const state = advance(adaptive.state, adaptive.pending, score === 1 ? 1 : 0);
-  const step = nextStep(state, delivery.bank, delivery.rules, elapsedSeconds);
+  // The exposure control the attempt started with, even if a newer one was stored since: a stored
+  // attempt replays exactly.
+  const rules = rulesWithExposureControl(delivery, adaptive.exposureControlId);
+  const step = nextStep(state, delivery.bank, rules, elapsedSeconds);
   if (step.kind === 'item') {
     form.items.push({ itemId: step.itemId, version: delivery.versions.get(step.itemId)! });
     form.presentedAt.push(null);

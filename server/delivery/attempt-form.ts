@@ -29,7 +29,24 @@ export const attemptFormSchema = z.object({
       pending: z.custom<ItemStep>((value) => typeof value === 'object' && value !== null).nullable(),
       stop: z.enum(stopReasons).nullable(),
       calibrationId: z.string(),
+      /** The stored Sympson–Hetter control the attempt started with (absent: randomesque only). */
+      exposureControlId: z.string().optional(),
     })
+    .optional(),
+  /**
+   * Pilot charts of this attempt (see server/delivery/pilots/pilot-slots.ts): each is shown just
+   * before the bank item at position `at` (once `at` bank items are answered), and recorded here as
+   * shown and answered. Bank positions, progress of the bank part and adaptive stop rules ignore them.
+   */
+  pilots: z
+    .array(
+      z.object({
+        pilotId: z.string(),
+        at: z.number().int().min(0),
+        presentedAt: z.string().nullable(),
+        answered: z.boolean(),
+      }),
+    )
     .optional(),
 });
 export type AttemptForm = z.infer<typeof attemptFormSchema>;

@@ -3,13 +3,17 @@ import { AppError } from '../errors.js';
 import {
   type AttemptRecord,
   countAttemptsInStudy,
-  findAttemptByTokenHash,
   insertAttempt,
   lockAttemptByTokenHash,
   updateAttempt,
 } from '../storage/attempt-repository.js';
-import { type CohortRecord, findCohortById, findCohortByJoinCode } from '../storage/cohort-repository.js';
+import {
+  type CohortRecord,
+  findCohortByJoinCode,
+  findCohortWithStudy,
+} from '../storage/cohort-repository.js';
 import { type DbHandle, nowIso } from '../storage/db-handle.js';
+import { listRetiredItemIds } from '../storage/item-status-repository.js';
 import { syncItemVersions } from '../storage/item-version-repository.js';
 import { countAttemptResponses } from '../storage/response-repository.js';
 import { findStudyById, type StudyRecord } from '../storage/study-repository.js';
@@ -20,8 +24,11 @@ import { hashAttemptToken, looksLikeAttemptToken, newAttemptToken } from './atte
 import { bookletForAttempt, buildBooklets } from './build-booklets.js';
 import type { DeliveryBank } from './delivery-bank.js';
 import { normaliseJoinCode } from './join-code.js';
+import { loadDuePilot, startAttemptPilots } from './pilots/pilot-delivery.js';
+import { markScreenShown } from './pilots/pilot-slots.js';
 import { selectItemPool } from './select-item-pool.js';
 import { preferNotToSay, type StudySettings, studySettingsSchema } from './study-settings.js';
+import { studyWithSettings } from './study-settings-cache.js';
 
 /** Everything a respondent request needs about its attempt, loaded from the token. */
 export interface AttemptContext {
@@ -52,24 +59,23 @@ export async function loadAttempt(
     throw new AppError('UNAUTHORIZED', 'Join with a code first (no valid attempt token was sent).');
   }
   const tokenHash = hashAttemptToken(token);
-  await lockAttemptByTokenHash(db, tokenHash);
-  const attempt = await findAttemptByTokenHash(db, tokenHash);
+  const attempt = await lockAttemptByTokenHash(db, tokenHash);
   if (!attempt)
     throw new AppError('UNAUTHORIZED', 'This attempt token is not known. Join with a code again.');
   const form = attemptFormSchema.parse(attempt.form);
   if (form.ended !== null && !options.allowEnded) throw new AppError('UNAUTHORIZED', sessionEnded);
-  const cohort = await findCohortById(db, attempt.cohortId);
-  const study = cohort ? await findStudyById(db, cohort.studyId) : undefined;
-  if (!cohort || !study) throw new AppError('UNAUTHORIZED', sessionEnded);
-  return { attempt, form, cohort, study, settings: parseStudySettings(study) };
+  const found = await findCohortWithStudy(db, attempt.cohortId);
+  if (!found) throw new AppError('UNAUTHORIZED', sessionEnded);
+  // Settings parsed once per stored text (shared, frozen): the respondent path only reads them.
+  return { attempt, form, cohort: found.cohort, ...studyWithSettings(found.study) };
 }
 
 /**
  * Brings an attempt's stored record up to date before answering: finishes it when its time limit
  * has passed, and records when the item now due was first shown (the start of its server_ms).
- * Writes only when something changed.
+ * Writes only when something changed; says whether it wrote.
  */
-async function settle(db: DbHandle, context: AttemptContext, answered: number): Promise<void> {
+async function settle(db: DbHandle, context: AttemptContext, answered: number): Promise<boolean> {
   const { attempt, form, settings } = context;
   const now = nowIso();
   if (
@@ -81,18 +87,22 @@ async function settle(db: DbHandle, context: AttemptContext, answered: number): 
     attempt.status = 'finished';
     attempt.finishedAt = now;
     await updateAttempt(db, attempt.id, { status: 'finished', finishedAt: now, lastSeenAt: now });
-    return;
+    return true;
   }
+  let wrote = false;
   const step = attemptStep(attempt, form, settings, answered);
   if (step === 'finished' && attempt.status === 'started') {
     attempt.status = 'finished';
     attempt.finishedAt = now;
     await updateAttempt(db, attempt.id, { status: 'finished', finishedAt: now, lastSeenAt: now });
+    wrote = true;
   }
-  if (step === 'item' && form.presentedAt[answered] === null) {
-    form.presentedAt[answered] = now;
+  // The screen now due (a bank item or a pilot) records when it was first shown.
+  if (step === 'item' && markScreenShown(form, answered, now)) {
     await updateAttempt(db, attempt.id, { form, lastSeenAt: now });
+    wrote = true;
   }
+  return wrote;
 }
 
 /** Settles the attempt and describes it for the page. */
@@ -101,10 +111,26 @@ export async function currentState(
   bank: DeliveryBank,
   context: AttemptContext,
 ): Promise<AttemptState> {
+  return settledState(db, bank, context, await countAttemptResponses(db, context.attempt.id));
+}
+
+/**
+ * `currentState` from response counts the caller already knows (an answer just stored: one count
+ * query fewer). With `touch`, `last_seen_at` is written when settling wrote nothing, so an answer's
+ * own update of the attempt row folds into the settle write (one statement instead of two).
+ */
+export async function settledState(
+  db: DbHandle,
+  bank: DeliveryBank,
+  context: AttemptContext,
+  counts: { answered: number; correct: number },
+  options: { touch?: boolean } = {},
+): Promise<AttemptState> {
   // settle() writes only the attempt row, never a response, so the counts stay valid after it.
-  const counts = await countAttemptResponses(db, context.attempt.id);
-  await settle(db, context, counts.answered);
-  return buildAttemptState({ ...context, ...counts, bank });
+  const pilot = await loadDuePilot(db, context.attempt.id, context.form, counts.answered);
+  const wrote = await settle(db, context, counts.answered);
+  if (options.touch === true && !wrote) await updateAttempt(db, context.attempt.id, { lastSeenAt: nowIso() });
+  return buildAttemptState({ ...context, ...counts, bank, pilot });
 }
 
 /**
@@ -134,6 +160,7 @@ export async function joinByCode(
   const { itemIds: pool } = selectItemPool(
     bank.items.map((entry) => entry.item),
     settings.pool,
+    await listRetiredItemIds(db),
   );
   if (pool.length === 0) {
     throw new AppError('CONFLICT', 'This activity has no questions available right now.', {
@@ -151,7 +178,9 @@ export async function joinByCode(
     adaptive = { items: started.items, adaptive: started.adaptive };
     itemIds = [];
   } else if (settings.design === 'rotated') {
-    const booklets = buildBooklets(pool, settings.maxItems);
+    // common items still in the pool (one retired since the study was made simply drops out)
+    const common = (settings.commonItems ?? []).filter((id) => pool.includes(id));
+    const booklets = buildBooklets(pool, settings.maxItems, common);
     booklet = bookletForAttempt(await countAttemptsInStudy(db, study.id), booklets.length);
     itemIds = booklets[booklet]!;
   } else {
@@ -167,6 +196,7 @@ export async function joinByCode(
     at,
   );
   const items = adaptive?.items ?? itemIds.map((itemId) => ({ itemId, version: versions.get(itemId)! }));
+  const pilots = await startAttemptPilots(db, study.id, settings, items.length, seed);
   const form: AttemptForm = {
     design: settings.design,
     booklet,
@@ -176,6 +206,7 @@ export async function joinByCode(
     ended: null,
     seed,
     ...(adaptive?.adaptive === undefined ? {} : { adaptive: adaptive.adaptive }),
+    ...(pilots.length === 0 ? {} : { pilots }),
   };
   const token = newAttemptToken();
   const id = randomUUID();

@@ -1,6 +1,9 @@
 import type { AttemptRecord } from '../storage/attempt-repository.js';
+import type { PilotRecord } from '../storage/pilot-repository.js';
 import type { AttemptForm } from './attempt-form.js';
 import type { DeliveryBank, RespondentItemView } from './delivery-bank.js';
+import { duePilot, pilotCount, pilotsAnswered } from './pilots/pilot-slots.js';
+import { pilotItemView } from './pilots/pilot-view.js';
 import { preferNotToSay, type StudySettings } from './study-settings.js';
 
 export const attemptSteps = ['consent', 'background', 'item', 'finished', 'declined', 'left'] as const;
@@ -34,7 +37,7 @@ export function attemptStep(
   if (attempt.status === 'abandoned') return 'left';
   if (attempt.consentedAt === null) return 'consent';
   if (settings.background.length > 0 && !form.backgroundDone) return 'background';
-  return answered < form.items.length ? 'item' : 'finished';
+  return answered < form.items.length || duePilot(form, answered) !== undefined ? 'item' : 'finished';
 }
 
 /**
@@ -48,8 +51,12 @@ export function buildAttemptState(input: {
   answered: number;
   correct: number;
   bank: DeliveryBank;
+  /** The pilot due now (see pilots/pilot-delivery.ts loadDuePilot); required when one is due. */
+  pilot?: Pick<PilotRecord, 'id' | 'prompt' | 'alt' | 'options'> | undefined;
 }): AttemptState {
   const { attempt, form, settings, answered, correct, bank } = input;
+  // The respondent's count includes pilots, so a pilot looks like any other chart.
+  const shown = answered + pilotsAnswered(form);
   const step = attemptStep(attempt, form, settings, answered);
   const state: AttemptState = {
     step,
@@ -62,9 +69,10 @@ export function buildAttemptState(input: {
     },
     // Adaptive: the attempt may stop earlier; the total is the upper bound until it stops.
     progress: {
-      answered,
+      answered: shown,
       total:
-        form.adaptive === undefined || form.adaptive.stop !== null ? form.items.length : settings.maxItems,
+        (form.adaptive === undefined || form.adaptive.stop !== null ? form.items.length : settings.maxItems) +
+        pilotCount(form),
     },
   };
   if (step === 'background') {
@@ -77,14 +85,22 @@ export function buildAttemptState(input: {
       ],
     }));
   }
-  if (step === 'item') {
+  const pilot = step === 'item' ? duePilot(form, answered) : undefined;
+  if (pilot !== undefined) {
+    if (input.pilot?.id !== pilot.pilotId) throw new Error(`buildAttemptState needs pilot ${pilot.pilotId}`);
+    state.item = {
+      ...pilotItemView(input.pilot, `${form.seed}:${pilot.pilotId}`),
+      version: 1,
+      position: shown,
+    };
+  } else if (step === 'item') {
     const entry = form.items[answered]!;
     state.item = {
       ...bank.view(entry.itemId, `${form.seed}:${entry.itemId}`),
       version: entry.version,
-      position: answered,
+      position: shown,
     };
   }
-  if (step === 'finished' && settings.endSummary) state.summary = { answered, chartsRead: correct };
+  if (step === 'finished' && settings.endSummary) state.summary = { answered: shown, chartsRead: correct };
   return state;
 }

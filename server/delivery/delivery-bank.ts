@@ -17,6 +17,11 @@ export interface DeliveryItem {
 export interface RespondentItemView {
   itemId: string;
   chartSvg: string;
+  /**
+   * A chart served as an image instead of inline SVG (pilot charts): fetch `src` with the attempt
+   * token and show it with `alt`. `chartSvg` is then empty.
+   */
+  chartImage?: { src: string; alt: string };
   prompt: string;
   responseKind: Item['response']['kind'];
   options?: { id: string; text: string }[];

@@ -3,14 +3,18 @@ import { AppError } from '../errors.js';
 import { updateAttempt } from '../storage/attempt-repository.js';
 import { type DbHandle, nowIso } from '../storage/db-handle.js';
 import { findResponse, insertResponse } from '../storage/response-repository.js';
+import { tallyAttemptResponses } from '../storage/response-tally-repository.js';
 import { advanceAdaptiveForm, loadAdaptiveDelivery } from './adaptive-delivery.js';
-import { type Answer, canonicalAnswer, sameAnswer } from './answer.js';
+import { type Answer, canonicalAnswer } from './answer.js';
+import { answerDoesNotFit, assertRetryOfStoredAnswer, stepNotCurrent } from './answer-refusals.js';
 import type { AttemptContext } from './attempt-service.js';
-import { currentState } from './attempt-service.js';
+import { settledState } from './attempt-service.js';
 import type { AttemptState } from './attempt-state.js';
 import { attemptStep } from './attempt-state.js';
 import { checkAnswer } from './check-answer.js';
 import type { DeliveryBank } from './delivery-bank.js';
+import { isPilotOfAttempt, submitPilotResponse } from './pilots/pilot-answer-service.js';
+import { duePilot, pilotsAnswered } from './pilots/pilot-slots.js';
 import { scoreAnswer } from './score-answer.js';
 
 export interface SubmittedResponse {
@@ -37,6 +41,8 @@ export async function submitResponse(
   submitted: SubmittedResponse,
 ): Promise<{ status: 'stored' | 'already-stored'; state: AttemptState }> {
   const { attempt, form, settings } = context;
+  // A pilot chart's answer is stored apart and never reaches the estimate (pilots/pilot-answer-service.ts).
+  if (isPilotOfAttempt(context, submitted.itemId)) return submitPilotResponse(db, bank, context, submitted);
   const position = form.items.findIndex((entry) => entry.itemId === submitted.itemId);
   if (position < 0) {
     throw new AppError('ITEM_NOT_IN_ATTEMPT', 'That question is not part of this attempt.', {
@@ -50,40 +56,27 @@ export async function submitResponse(
     });
   }
   const problem = checkAnswer(entry.item, submitted.answer);
-  if (problem) {
-    throw new AppError('VALIDATION_FAILED', `${problem.field}: ${problem.problem}`, { problems: [problem] });
-  }
+  if (problem) throw answerDoesNotFit(problem);
 
-  const existing = await findResponse(db, attempt.id, submitted.itemId);
+  // One statement: the attempt's counts and whether this item already has an answer (a retry).
+  const { itemAnswered, ...counts } = await tallyAttemptResponses(db, attempt.id, submitted.itemId);
+  const existing = itemAnswered ? await findResponse(db, attempt.id, submitted.itemId) : undefined;
   if (existing) {
-    const stored: Answer =
-      existing.answerKind === 'dont-know' ? { kind: 'dont-know' } : (existing.answer as Answer);
-    if (!sameAnswer(stored, submitted.answer)) {
-      throw new AppError(
-        'ANSWER_ALREADY_STORED',
-        'A different answer to this question was already saved. The first answer stands.',
-        { itemId: submitted.itemId },
-      );
-    }
-    return { status: 'already-stored', state: await currentState(db, bank, context) };
+    assertRetryOfStoredAnswer(existing, submitted.answer, submitted.itemId);
+    return { status: 'already-stored', state: await settledState(db, bank, context, counts) };
   }
 
   // Let a passed time limit finish the attempt before deciding whether it takes answers.
-  const before = await currentState(db, bank, context);
+  const before = await settledState(db, bank, context, counts);
   if (before.step === 'finished' || attempt.status !== 'started') {
     throw new AppError('ATTEMPT_FINISHED', 'This attempt is finished; no more answers can be saved.');
   }
-  // currentState just counted the stored responses (in this transaction); no second count.
-  const answered = before.progress.answered;
+  // The tally just counted the stored responses (in this transaction); no second count. The
+  // state's progress includes answered pilots, which the bank positions do not.
+  const answered = before.progress.answered - pilotsAnswered(form);
   const step = attemptStep(attempt, form, settings, answered);
-  if (step !== 'item') {
-    throw new AppError(
-      'STEP_NOT_CURRENT',
-      step === 'consent' ? 'Agree to take part first.' : 'Answer the background questions first.',
-      { step },
-    );
-  }
-  if (position !== answered) {
+  if (step !== 'item') throw stepNotCurrent(step);
+  if (position !== answered || duePilot(form, answered) !== undefined) {
     throw new AppError('ITEM_NOT_CURRENT', 'That question has not been shown yet. Answer the current one.', {
       field: 'body.itemId',
     });
@@ -119,8 +112,10 @@ export async function submitResponse(
     const elapsedSeconds = first ? Math.max(0, Date.parse(now) - Date.parse(first)) / 1000 : 0;
     advanceAdaptiveForm(delivery, form, score, elapsedSeconds);
     await updateAttempt(db, attempt.id, { form, lastSeenAt: now });
-  } else {
-    await updateAttempt(db, attempt.id, { lastSeenAt: now });
   }
-  return { status: 'stored', state: await currentState(db, bank, context) };
+  // The counts after this insert are known: no second count. Settling the next screen writes the
+  // attempt row anyway; `touch` writes last_seen_at only when it did not.
+  const after = { answered: counts.answered + 1, correct: counts.correct + (score === 1 ? 1 : 0) };
+  const state = await settledState(db, bank, context, after, { touch: form.adaptive === undefined });
+  return { status: 'stored', state };
 }

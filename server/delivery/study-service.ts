@@ -103,6 +103,14 @@ export function validateStudySettings(input: unknown, bank: DeliveryBank): Study
     const problem = { field: 'body.pool', problem: 'selects no active item of the bank' };
     throw new AppError('VALIDATION_FAILED', `${problem.field}: ${problem.problem}`, { problems: [problem] });
   }
+  const outside = (settings.commonItems ?? []).filter((id) => !itemIds.includes(id));
+  if (outside.length > 0) {
+    const problem = {
+      field: 'body.commonItems',
+      problem: `not items of the study's pool: ${outside.join(', ')}`,
+    };
+    throw new AppError('VALIDATION_FAILED', `${problem.field}: ${problem.problem}`, { problems: [problem] });
+  }
   return settings;
 }
 

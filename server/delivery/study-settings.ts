@@ -56,6 +56,15 @@ export const studySettingsSchema = z
     adaptive: adaptiveStudySettingsSchema.optional(),
     /** Items per attempt (per booklet when rotated; the upper bound when adaptive). */
     maxItems: z.number().int().min(1).max(200).default(20),
+    /**
+     * Rotated design: pool items every booklet opens with (a common block), e.g. items a fairness
+     * check must compare across groups; the rest rotate (build-booklets.ts). Fixed and adaptive ignore it.
+     */
+    commonItems: z
+      .array(kebabIdSchema)
+      .max(100)
+      .refine((ids) => new Set(ids).size === ids.length, { message: 'item ids must be unique' })
+      .optional(),
     timeLimitSeconds: z
       .number()
       .int()
@@ -81,10 +90,21 @@ export const studySettingsSchema = z
     idleSeconds: z.number().int().min(15).max(3600).default(90),
     /** Show "you read N charts" at the end. Off by default. */
     endSummary: z.boolean().default(false),
+    /**
+     * People who score each short-text answer against its rubric: 1 (default) or 2 (agreement is then
+     * reported as weighted kappa). See server/delivery/rubric-scoring-service.ts.
+     */
+    rubricRaters: z.union([z.literal(1), z.literal(2)]).default(1),
+    /** Pilot charts shown per attempt when the study has active pilots (absent: 1; 0: none). */
+    pilotsPerAttempt: z.number().int().min(0).max(5).optional(),
   })
   .refine((s) => s.design !== 'rotated' || s.maxItems >= 2, {
     message: 'a rotated design needs at least 2 items per booklet',
     path: ['maxItems'],
+  })
+  .refine((s) => s.design !== 'rotated' || (s.commonItems?.length ?? 0) <= s.maxItems - 2, {
+    message: 'common items must leave at least 2 places per booklet for rotated items',
+    path: ['commonItems'],
   });
 
 /** Settings as stored and used (defaults filled in). */

@@ -10,14 +10,17 @@ import { openDatabase } from '../cli/open-database.js';
 import { type Config, loadConfig } from '../config.js';
 import { buildReport } from '../reports/build-report.js';
 import { calibrateStudy } from '../reports/calibrate-study.js';
+import { parseFairnessQuery } from '../reports/fairness-service.js';
 import { reportToText } from '../reports/report-text.js';
 import { seededRandom } from '../scoring/seeded-random.js';
 import type { Database } from '../storage/database.js';
+import { demoPilotBody, demoPilotDifficulty } from './demo-pilot.js';
 import { generatingDifficulty } from './generating-difficulty.js';
 import { callApi, simulateRespondent } from './simulate-through-api.js';
 import { simulateAbilities } from './simulated-audience.js';
 import {
   difficultiesFor,
+  injectedDif,
   injectedDifItems,
   simulateWorksWithData,
   worksWithDataQuestion,
@@ -41,11 +44,15 @@ export interface DemoOptions {
 export interface RunningDemo {
   readonly app: FastifyInstance;
   readonly db: Kysely<Database>;
+  /** The demo database's URL (`sqlite:<file>`), for commands such as `plotgauge predict --database`. */
+  readonly databaseUrl: string;
   readonly bank: ItemBank;
   readonly baseUrl: string;
   readonly studyId: string;
   readonly adminToken: string;
   readonly reportUrl: string;
+  /** The report with its Fairness section: "works with data", yes (reference) vs no (focal). */
+  readonly fairnessUrl: string;
   /** Join link of the weekend families' cohort, for a person who wants to take the test too. */
   readonly tryUrl: string;
   readonly signInUrl: string;
@@ -55,6 +62,8 @@ export interface RunningDemo {
   close(): Promise<void>;
 }
 
+/** The demo's Fairness question: reference "yes", focal the answer given invented DIF. */
+const fairnessQuery = `${worksWithDataQuestion.id}:yes,${injectedDif.focalAnswer}`;
 const studyTitle = 'Lumen Hall science centre: chart reading (SIMULATED AUDIENCE, demo data)';
 const consentText =
   'DEMO: every respondent in this study is simulated by the plotgauge demo; no real person answered. ' +
@@ -108,6 +117,7 @@ export async function runDemo(options: DemoOptions = {}): Promise<RunningDemo> {
   try {
     const result = await populate(baseUrl, adminToken, bank, db, options, print);
     const reportUrl = `${baseUrl}/studies/${result.studyId}/report`;
+    const fairnessUrl = `${reportUrl}?fairness=${fairnessQuery}`;
     const signInUrl = `${baseUrl}/sign-in?next=${encodeURIComponent(`/studies/${result.studyId}/report`)}#token=${adminToken}`;
     const seconds = (performance.now() - started) / 1000;
     const cpu = process.cpuUsage(cpuStart);
@@ -115,12 +125,14 @@ export async function runDemo(options: DemoOptions = {}): Promise<RunningDemo> {
     return {
       app,
       db,
+      databaseUrl: config.databaseUrl,
       bank,
       baseUrl,
       studyId: result.studyId,
       tryUrl: result.tryUrl,
       adminToken,
       reportUrl,
+      fairnessUrl,
       signInUrl,
       seconds,
       cpuSeconds,
@@ -165,6 +177,9 @@ async function populate(
       pool: { itemIds: pool.map((item) => item.id) },
       design: 'rotated',
       maxItems: 12,
+      // the two items given invented DIF open every booklet (a common block), so everyone answers them
+      // and the report's Fairness section has enough answers in both groups to screen them
+      commonItems: injectedDifItems(pool.map((item) => item.id)),
       consentText,
       background: [worksWithDataQuestion],
       endSummary: true,
@@ -172,6 +187,10 @@ async function populate(
     adminToken,
   );
   const studyId = study.id as string;
+  // One pilot chart in the bank's chart format; every simulated respondent meets it once.
+  const pilotBody = demoPilotBody(options.sizeFactor ?? 1);
+  const pilot = await callApi(baseUrl, 'POST', `/api/admin/studies/${studyId}/pilots`, pilotBody, adminToken);
+  const pilots = new Map([[pilot.id as string, { difficulty: demoPilotDifficulty, key: pilotBody.key }]]);
   const difItems = injectedDifItems(pool.map((item) => item.id));
   const random = seededRandom(options.seed ?? 2031);
   const audience = simulateAbilities(random).map((entry) => ({
@@ -215,6 +234,7 @@ async function populate(
           bank,
           seededRandom(next.seed),
           { [worksWithDataQuestion.id]: next.worksWithData },
+          pilots,
         );
       }
     });
@@ -244,6 +264,17 @@ export async function demoSummary(demo: RunningDemo): Promise<string> {
   const before = cohorts.find((c) => c.label === 'Course, before');
   const after = cohorts.find((c) => c.label === 'Course, after');
   let text = reportToText(whole);
+  const pilot = whole.pilots?.pilots[0];
+  if (pilot?.state === 'calibrated') {
+    text += `\nThe demo's pilot chart was simulated with an invented difficulty of ${demoPilotDifficulty} logits; the report estimates ${pilot.difficulty!.toFixed(2)} ± ${pilot.standardError!.toFixed(2)}.\n`;
+  }
+  const fair = await buildReport(demo.db, info, demo.studyId, {
+    fairness: parseFairnessQuery(fairnessQuery),
+  });
+  const injected = injectedDifItems(
+    demo.bank.items.filter((i) => i.status === 'active' && i.response.kind !== 'short-text').map((i) => i.id),
+  );
+  text += `\nFairness (${fairnessQuery}): ${fair.fairness!.sentence} Items given invented DIF: ${injected.join(', ')}.\n`;
   if (before && after) {
     const course = await buildReport(demo.db, info, demo.studyId, { compare: [before.id, after.id] });
     const cmp = course.comparison!;

@@ -47,6 +47,8 @@ export async function simulateRespondent(
   bank: ItemBank,
   random: SeededRandom,
   background: Readonly<Record<string, string>> = {},
+  /** Pilot charts of the study: generating difficulty and keyed option (they are not in the bank). */
+  pilots: ReadonlyMap<string, { readonly difficulty: number; readonly key: string }> = new Map(),
 ): Promise<number> {
   const joined = await callApi(baseUrl, 'POST', '/api/join', { code: joinCode });
   const token = joined.token as string;
@@ -69,12 +71,13 @@ export async function simulateRespondent(
   let answers = 0;
   while (state.step === 'item' && state.item) {
     const itemId = state.item.itemId;
+    const pilot = pilots.get(itemId);
     const bankItem = bank.byId.get(itemId);
-    const difficulty = difficultyOf.get(itemId);
-    if (!bankItem || difficulty === undefined)
+    const difficulty = pilot?.difficulty ?? difficultyOf.get(itemId);
+    if ((!bankItem && !pilot) || difficulty === undefined)
       throw new Error(`demo: item ${itemId} is not in the demo's bank`);
     const outcome = simulateAnswer(random, ability, difficulty);
-    const keyed = bankItem.resolvedKey.optionIds;
+    const keyed = pilot ? [pilot.key] : bankItem!.resolvedKey.optionIds;
     const wrong = (state.item.options ?? []).map((o) => o.id).find((id) => !keyed.includes(id));
     const answer =
       outcome === 'dont-know' || (outcome === 'wrong' && wrong === undefined)

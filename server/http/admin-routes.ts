@@ -18,7 +18,7 @@ import { studySettingsSchema } from '../delivery/study-settings.js';
 import { AppError } from '../errors.js';
 import { eraseAttempt } from '../storage/erasure-repository.js';
 import { actorOf } from './access-control.js';
-import { errorBodySchema } from './schemas.js';
+import { errorBodySchema, studyParams } from './schemas.js';
 
 const studySchema = z.object({
   id: z.string(),
@@ -39,7 +39,6 @@ const cohortSchema = z.object({
   createdAt: z.string(),
 });
 
-const studyParams = z.object({ studyId: z.string().min(1).max(100) });
 const cohortParams = studyParams.extend({ cohortId: z.string().min(1).max(100) });
 const errors = { 400: errorBodySchema, 401: errorBodySchema, 404: errorBodySchema, 409: errorBodySchema };
 

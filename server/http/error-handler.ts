@@ -1,6 +1,8 @@
 import type { FastifyError, FastifyInstance, FastifyReply, FastifyRequest } from 'fastify';
 import { hasZodFastifySchemaValidationErrors, isResponseSerializationError } from 'fastify-type-provider-zod';
 import { AppError, type ErrorBody, type ErrorCode, errorCodes } from '../errors.js';
+import { renderErrorPage } from '../pages/error-page.js';
+import { consolePages } from './access-policy.js';
 
 /** One field problem: where (`body.title`) and what is wrong with it. */
 export interface FieldProblem {
@@ -9,8 +11,20 @@ export interface FieldProblem {
 }
 
 function send(reply: FastifyReply, code: ErrorCode, message: string, details: Record<string, unknown> = {}) {
+  const status = errorCodes[code].status;
+  if (status < 500 && wantsPage(reply.request)) {
+    return reply.code(status).type('text/html; charset=utf-8').send(renderErrorPage({ status, message }));
+  }
   const body: ErrorBody = { error: { code, message, details } };
-  return reply.code(errorCodes[code].status).type('application/json; charset=utf-8').send(body);
+  return reply.code(status).type('application/json; charset=utf-8').send(body);
+}
+
+/** A browser asking for a console or report page (GET, HTML accepted) gets a page instead of JSON. */
+function wantsPage(request: FastifyRequest): boolean {
+  if (request.method !== 'GET' && request.method !== 'HEAD') return false;
+  const url = request.routeOptions?.url;
+  if (url === undefined || !consolePages.has(`GET ${url}`)) return false;
+  return (request.headers.accept ?? '').includes('text/html');
 }
 
 const fastifyCodeMap: Partial<Record<string, ErrorCode>> = {

@@ -1,5 +1,6 @@
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
+import type { ItemBank } from '../bank/load-bank.js';
 import { loadAttempt } from '../delivery/attempt-service.js';
 import {
   addPilot,
@@ -12,7 +13,7 @@ import { requireStudy } from '../delivery/study-service.js';
 import { findPilotById, listPilots } from '../storage/pilot-repository.js';
 import { actorOf } from './access-control.js';
 import { bearerToken } from './auth.js';
-import { errorBodySchema } from './schemas.js';
+import { errorBodySchema, studyParams, teamRouteErrors } from './schemas.js';
 
 /** A pilot body: base64 of at most 256 KiB, plus text. */
 export const pilotBodyLimit = 400 * 1024;
@@ -31,17 +32,8 @@ const pilotSchema = z.object({
   createdAt: z.string(),
   sanitized: z.boolean().optional(),
 });
-const studyParams = z.object({ studyId: z.string().min(1).max(100) });
 const pilotParams = studyParams.extend({ pilotId: z.string().min(1).max(100) });
-const errors = {
-  400: errorBodySchema,
-  401: errorBodySchema,
-  403: errorBodySchema,
-  404: errorBodySchema,
-  409: errorBodySchema,
-  413: errorBodySchema,
-  415: errorBodySchema,
-};
+const errors = { ...teamRouteErrors, 413: errorBodySchema, 415: errorBodySchema };
 
 /**
  * Pilot items (see DEVELOPERS.md, "Adaptive delivery and pilots"): admins add and list a study's
@@ -50,15 +42,17 @@ const errors = {
  * their own content type, `Content-Security-Policy: default-src 'none'; style-src 'unsafe-inline'`
  * and `X-Content-Type-Options: nosniff`.
  */
-export const pilotRoutes: FastifyPluginAsyncZod = async (app) => {
+export const pilotRoutes: FastifyPluginAsyncZod<{ bank?: Pick<ItemBank, 'maps'> }> = async (app, options) => {
   const db = app.db;
+  const maps = options.bank?.maps ?? new Map();
 
   app.post(
     '/api/admin/studies/:studyId/pilots',
     {
       bodyLimit: pilotBodyLimit,
       schema: {
-        summary: 'Add a pilot chart (SVG or PNG, base64) with prompt, options and key',
+        summary:
+          'Add a pilot chart (SVG or PNG as base64, or a chart spec in the bank format) with prompt, options and key',
         tags: ['admin'],
         params: studyParams,
         body: pilotInputSchema,
@@ -68,7 +62,7 @@ export const pilotRoutes: FastifyPluginAsyncZod = async (app) => {
     async (request, reply) => {
       const pilot = await db
         .transaction()
-        .execute((trx) => addPilot(trx, request.params.studyId, request.body, actorOf(request)));
+        .execute((trx) => addPilot(trx, request.params.studyId, request.body, actorOf(request), { maps }));
       return reply.code(201).send(pilot);
     },
   );

@@ -1,12 +1,8 @@
-import { readFileSync } from 'node:fs';
-import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import type { FastifyReply } from 'fastify';
 import type { FastifyPluginAsyncZod } from 'fastify-type-provider-zod';
 import { z } from 'zod';
 import type { Config } from '../config.js';
 import type { DeliveryBank } from '../delivery/delivery-bank.js';
-import { AppError } from '../errors.js';
 import { renderReportPage } from '../pages/report-page.js';
 import { renderSignInPage } from '../pages/report-sign-in-page.js';
 import { buildReport } from '../reports/build-report.js';
@@ -19,9 +15,9 @@ import type { Report } from '../reports/report-types.js';
 import { listCohorts } from '../storage/cohort-repository.js';
 import { consoleCookieValue, principalOfToken } from './access-control.js';
 import { consoleCookieHeader, safeNextPath, signOutCookieHeader } from './console-auth.js';
-import { errorBodySchema } from './schemas.js';
+import { errorBodySchema, studyParams } from './schemas.js';
+import { readPageAssets, serveAssets } from './served-assets.js';
 
-const studyParams = z.object({ studyId: z.string().min(1).max(100) });
 const reportQuery = z.strictObject({
   cohort: z.string().min(1).max(100).optional(),
   /** Two cohort ids, `from,to`: differences are to − from. */
@@ -71,17 +67,7 @@ const reportSchema = z.looseObject({
   }),
 });
 
-const assetsFolder = path.join(path.dirname(fileURLToPath(import.meta.url)), '..', 'pages', 'assets');
-const assetTypes: Readonly<Record<string, string>> = {
-  'report.css': 'text/css; charset=utf-8',
-  'sign-in.js': 'text/javascript; charset=utf-8',
-};
-const assets = new Map(
-  Object.entries(assetTypes).map(([name, type]) => [
-    name,
-    { type, body: readFileSync(path.join(assetsFolder, name), 'utf8') },
-  ]),
-);
+const assets = readPageAssets(['report.css', 'sign-in.js']);
 
 /** Chart type and task level of a bank item, for the report. */
 export function reportItemInfo(bank: DeliveryBank) {
@@ -312,20 +298,8 @@ export const reportRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank; config: C
       reply.code(303).header('set-cookie', signOutCookieHeader).redirect('/sign-in', 303),
   );
 
-  app.get(
-    '/report-assets/:name',
-    {
-      schema: {
-        summary: 'Style sheet and sign-in script of the report pages',
-        tags: ['reports'],
-        params: z.object({ name: z.string().max(100) }),
-        response: { 200: z.string(), 404: errorBodySchema },
-      },
-    },
-    async (request, reply) => {
-      const asset = assets.get(request.params.name);
-      if (!asset) throw new AppError('NOT_FOUND', 'There is no such file.');
-      return reply.header('cache-control', 'public, no-cache').type(asset.type).send(asset.body);
-    },
-  );
+  serveAssets(app, '/report-assets/:name', assets, {
+    summary: 'Style sheet and sign-in script of the report pages',
+    tag: 'reports',
+  });
 };

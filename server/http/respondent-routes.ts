@@ -10,6 +10,7 @@ import {
 import type { DeliveryBank } from '../delivery/delivery-bank.js';
 import { submitResponse } from '../delivery/response-service.js';
 import { isUniqueViolation } from '../storage/db-handle.js';
+import { writeQueueFor } from '../storage/write-batch.js';
 import { bearerToken } from './auth.js';
 import {
   attemptStateSchema,
@@ -35,11 +36,14 @@ const errors = {
 };
 
 /**
- * The respondent API (see DEVELOPERS.md, "Delivery"). Each mutating route runs in one transaction
- * that commits before the reply is sent. Authentication: the attempt token as a bearer token.
+ * The respondent API (see DEVELOPERS.md, "Delivery"). Every route that may write (the state read
+ * too: it records when an item is first shown) runs as one unit of the database's write queue
+ * (server/storage/write-batch.ts): on SQLite concurrent units share one commit (group commit), on
+ * PostgreSQL each is its own transaction. Either way the reply is sent only after the commit.
+ * Authentication: the attempt token as a bearer token.
  */
 export const respondentRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank }> = async (app, { bank }) => {
-  const db = app.db;
+  const writes = writeQueueFor(app.db);
 
   app.post(
     '/api/join',
@@ -53,9 +57,9 @@ export const respondentRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank }> = a
       },
     },
     async (request, reply) => {
-      const { token, state } = await db
-        .transaction()
-        .execute((trx) => joinByCode(trx, bank, request.body.code, (warning) => request.log.warn(warning)));
+      const { token, state } = await writes.run((trx) =>
+        joinByCode(trx, bank, request.body.code, (warning) => request.log.warn(warning)),
+      );
       return reply.code(201).send({ token, attempt: state });
     },
   );
@@ -70,9 +74,7 @@ export const respondentRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank }> = a
       },
     },
     async (request) =>
-      db
-        .transaction()
-        .execute(async (trx) => currentState(trx, bank, await loadAttempt(trx, bearerToken(request)))),
+      writes.run(async (trx) => currentState(trx, bank, await loadAttempt(trx, bearerToken(request)))),
   );
 
   app.post(
@@ -87,11 +89,9 @@ export const respondentRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank }> = a
       },
     },
     async (request) =>
-      db
-        .transaction()
-        .execute(async (trx) =>
-          giveConsent(trx, bank, await loadAttempt(trx, bearerToken(request)), request.body.agree),
-        ),
+      writes.run(async (trx) =>
+        giveConsent(trx, bank, await loadAttempt(trx, bearerToken(request)), request.body.agree),
+      ),
   );
 
   app.post(
@@ -106,11 +106,9 @@ export const respondentRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank }> = a
       },
     },
     async (request) =>
-      db
-        .transaction()
-        .execute(async (trx) =>
-          answerBackground(trx, bank, await loadAttempt(trx, bearerToken(request)), request.body.answers),
-        ),
+      writes.run(async (trx) =>
+        answerBackground(trx, bank, await loadAttempt(trx, bearerToken(request)), request.body.answers),
+      ),
   );
 
   app.post(
@@ -127,14 +125,13 @@ export const respondentRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank }> = a
     async (request, reply) => {
       const token = bearerToken(request);
       const attemptOnce = () =>
-        db
-          .transaction()
-          .execute(async (trx) => submitResponse(trx, bank, await loadAttempt(trx, token), request.body));
+        writes.run(async (trx) => submitResponse(trx, bank, await loadAttempt(trx, token), request.body));
       let result: Awaited<ReturnType<typeof attemptOnce>>;
       try {
         result = await attemptOnce();
       } catch (error) {
-        // Two copies of one answer raced; the loser now finds the winner's row and compares.
+        // Two copies of one answer raced (PostgreSQL: two instances); the loser now finds the
+        // winner's row and compares.
         if (!isUniqueViolation(error)) throw error;
         result = await attemptOnce();
       }
@@ -155,10 +152,8 @@ export const respondentRoutes: FastifyPluginAsyncZod<{ bank: DeliveryBank }> = a
       },
     },
     async (request) =>
-      db
-        .transaction()
-        .execute(async (trx) =>
-          leaveAttempt(trx, bank, await loadAttempt(trx, bearerToken(request), { allowEnded: true })),
-        ),
+      writes.run(async (trx) =>
+        leaveAttempt(trx, bank, await loadAttempt(trx, bearerToken(request), { allowEnded: true })),
+      ),
   );
 };

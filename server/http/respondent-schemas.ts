@@ -27,6 +27,7 @@ export const attemptStateSchema = z.object({
       itemId: z.string(),
       version: z.number().int(),
       chartSvg: z.string(),
+      chartImage: z.object({ src: z.string(), alt: z.string() }).optional(),
       prompt: z.string(),
       responseKind: z.enum(['single-choice', 'multiple-choice', 'numeric', 'short-text']),
       options: z.array(optionSchema).optional(),

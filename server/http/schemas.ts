@@ -9,3 +9,15 @@ export const errorBodySchema = z.object({
     details: z.record(z.string(), z.unknown()),
   }),
 });
+
+/** Path parameters of a route under one study. */
+export const studyParams = z.object({ studyId: z.string().min(1).max(100) });
+
+/** The refusals a team route may answer with: bad input, signed out, not allowed, not found, conflict. */
+export const teamRouteErrors = {
+  400: errorBodySchema,
+  401: errorBodySchema,
+  403: errorBodySchema,
+  404: errorBodySchema,
+  409: errorBodySchema,
+};

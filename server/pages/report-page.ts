@@ -8,6 +8,8 @@ import { reportRows, rowKey } from '../reports/report-rows.js';
 import type { Interval, Report, ReportAudience } from '../reports/report-types.js';
 import { renderFairnessSection } from './fairness-section-html.js';
 import { html, raw, type SafeHtml } from './html.js';
+import { renderPilotSection } from './pilot-section-html.js';
+import { renderRubricAgreementSection } from './rubric-agreement-html.js';
 
 type Format = 'share' | 'logit' | 'count' | 'ratio' | 'signed-share';
 
@@ -156,6 +158,8 @@ ${report.audiences.length === 1 ? audienceSection(report, report.audiences[0]!, 
 ${comparisonSection(report, rows)}
 ${report.audiences.length > 1 ? report.audiences.map((a) => audienceSection(report, a, rows)) : ''}
 ${report.fairness ? renderFairnessSection(report.fairness, rows) : ''}
+${report.rubric ? renderRubricAgreementSection(report.rubric, rows) : ''}
+${report.pilots ? renderPilotSection(report.pilots, rows) : ''}
 ${itemSection(report, rows)}
 </main>
 <footer>

@@ -18,12 +18,13 @@ export function renderSignInPage(options: { next: string; error?: string }): str
 </head>
 <body>
 <main class="sign-in">
-<h1>Sign in to the reports</h1>
+<h1>Sign in to plotgauge</h1>
 ${options.error ? html`<p class="notice" role="alert">${options.error}</p>` : ''}
 <form method="post" action="/sign-in" id="sign-in">
 <input type="hidden" name="next" value="${options.next}">
-<label for="token">Admin token</label>
-<input type="password" id="token" name="token" autocomplete="current-password" required minlength="16">
+<label for="token">Team token</label>
+<p id="token-hint" class="hint">An admin or analyst token from <code>plotgauge token create</code>, or the server's ADMIN_TOKEN.</p>
+<input type="password" id="token" name="token" autocomplete="current-password" required minlength="16" aria-describedby="token-hint">
 <button type="submit">Sign in</button>
 </form>
 </main>

@@ -12,6 +12,7 @@ import {
 } from '../storage/calibration-repository.js';
 import { listCohorts } from '../storage/cohort-repository.js';
 import type { DbHandle } from '../storage/db-handle.js';
+import { listDoubleScores, listRubricScoredItemIds } from '../storage/rubric-score-repository.js';
 import { findStudyById } from '../storage/study-repository.js';
 import {
   type CalibrateStudyOptions,
@@ -22,7 +23,9 @@ import {
 import { composeReport, type ReportItemInfo, type ReportOptions } from './compose-report.js';
 import type { FairnessGrouping } from './fairness-section.js';
 import { buildFairnessSection } from './fairness-service.js';
+import { buildPilotSection } from './pilot-report-service.js';
 import type { Report } from './report-types.js';
+import { rubricAgreementSection } from './rubric-agreement-section.js';
 
 export interface BuildReportOptions extends ReportOptions {
   /**
@@ -118,7 +121,7 @@ export async function buildReport(
     }
   }
   const responses = await listScoredResponses(db, studyId, record.responsesUntil);
-  const report = composeReport({
+  const composed = composeReport({
     study: { id: study.id, title: study.title },
     cohorts: cohorts.map((c) => ({ id: c.id, label: c.label })),
     calibration,
@@ -128,6 +131,22 @@ export async function buildReport(
     itemInfo,
     options,
   });
+  // Rater agreement reads every double score so far (scores are about raters, not the calibration).
+  const rubricItemIds = await listRubricScoredItemIds(db, studyId);
+  // Pilot charts: calibrated onto this calibration's scale with the bank anchored (never the reverse).
+  const pilots = await buildPilotSection(db, studyId, calibration, responses, composed);
+  const withPilots: Report = pilots === undefined ? composed : { ...composed, pilots };
+  const report: Report =
+    rubricItemIds.length > 0
+      ? {
+          ...withPilots,
+          rubric: rubricAgreementSection(
+            rubricItemIds,
+            await listDoubleScores(db, studyId),
+            calibration.settings.partialCredit?.items ?? [],
+          ),
+        }
+      : withPilots;
   if (!options.fairness) return report;
   const fairness = await buildFairnessSection(
     db,

@@ -16,11 +16,18 @@
  *
  * The group estimates and the bootstrap replicates are kept in the calibration's settings JSON (so a
  * report reads one stored source and never recomputes a random number).
+ *
+ * Rubric items: when some answers carry rubric scores (0, 1, 2), every item is calibrated under the
+ * partial credit model instead (see partial-credit-study-fit.ts): the scale's origin is then the mean
+ * item location, each rubric item's difficulty is its location (mean of its two steps) and its steps
+ * are kept in `settings.partialCredit`; persons are estimated with those steps. Without rubric scores
+ * nothing changes.
  */
 import { randomUUID } from 'node:crypto';
 import { AppError } from '../errors.js';
 import { calibrateMml } from '../scoring/rasch/calibrate-mml.js';
 import { computeFitStatistics } from '../scoring/rasch/fit-statistics.js';
+import { pcmItemFit } from '../scoring/rasch/pcm-item-fit.js';
 import {
   type CalibrationItemRecord,
   type CalibrationRecord,
@@ -31,8 +38,10 @@ import {
 } from '../storage/calibration-repository.js';
 import { listCohorts } from '../storage/cohort-repository.js';
 import { type DbHandle, nowIso } from '../storage/db-handle.js';
+import { listRubricScoredItemIds } from '../storage/rubric-score-repository.js';
 import { findStudyById } from '../storage/study-repository.js';
 import { bootstrapAbilityDistributions } from './bootstrap-ability-distributions.js';
+import { fitPartialCreditStudy } from './partial-credit-study-fit.js';
 import { personEstimates } from './person-estimates.js';
 import { studyResponseMatrix } from './study-response-matrix.js';
 
@@ -76,14 +85,20 @@ export interface StoredGroup {
 export interface UncalibratedItem {
   readonly itemId: string;
   readonly answers: number;
-  readonly reason: 'too-few-answers' | 'all-correct' | 'all-wrong' | 'constant-in-every-score-group';
+  readonly reason:
+    | 'too-few-answers'
+    | 'all-correct'
+    | 'all-wrong'
+    | 'constant-in-every-score-group'
+    | 'unobserved-category';
   /** More scored answers needed (too-few-answers only). */
   readonly moreNeeded: number;
 }
 
 /** What a calibration stores in its settings JSON. */
 export interface StoredCalibrationSettings {
-  readonly identification: 'first-cohort-mean' | 'anchored';
+  /** `mean-item-location`: a partial credit calibration (rubric items present), origin = mean item location. */
+  readonly identification: 'first-cohort-mean' | 'anchored' | 'mean-item-location';
   readonly anchoredFrom: string | null;
   readonly quadraturePoints: number;
   readonly maxIterations: number;
@@ -91,12 +106,28 @@ export interface StoredCalibrationSettings {
   readonly minAnswersPerItem: number;
   readonly groups: readonly StoredGroup[];
   readonly uncalibrated: readonly UncalibratedItem[];
+  /** Present when rubric items were calibrated: their steps (logits) under the partial credit model. */
+  readonly partialCredit?: {
+    readonly items: readonly StoredRubricItem[];
+  };
   readonly bootstrap: {
     readonly replicates: number;
     readonly seed: number;
     /** draws[r][g] = [mean, sd] of group g in replicate r (groups in `groups` order). */
     readonly draws: readonly (readonly (readonly [number, number])[])[];
   };
+}
+
+/** One rubric item's partial credit steps as stored (δ_1, δ_2; location = their mean = its difficulty). */
+export interface StoredRubricItem {
+  readonly itemId: string;
+  readonly steps: readonly number[];
+  readonly stepStandardErrors: readonly number[];
+}
+
+/** The partial credit steps of a calibration's rubric items by item id (empty for right/wrong only). */
+export function storedRubricSteps(settings: StoredCalibrationSettings): Map<string, readonly number[]> {
+  return new Map((settings.partialCredit?.items ?? []).map((item) => [item.itemId, item.steps]));
 }
 
 /** A calibration as the report reads it. */
@@ -181,6 +212,15 @@ export async function calibrateStudy(
     labels: present.map((c) => c.id),
   };
 
+  const rubricScored = new Set(await listRubricScoredItemIds(db, studyId));
+  const rubricItems = new Set(matrix.itemIds.filter((id) => rubricScored.has(id)));
+  if (rubricItems.size > 0 && options.anchorTo !== undefined)
+    throw new AppError(
+      'CONFLICT',
+      `Study "${study.title}" has rubric-scored items; anchoring to an earlier calibration is not available for partial credit calibrations yet. Calibrate without anchoring.`,
+      { field: 'anchorTo' },
+    );
+
   let anchors: Map<string, number> | undefined;
   if (options.anchorTo !== undefined) {
     const earlier = await findCalibrationById(db, options.anchorTo);
@@ -199,14 +239,23 @@ export async function calibrateStudy(
       );
   }
 
-  let fit: ReturnType<typeof calibrateMml>;
+  let fit: Pick<
+    ReturnType<typeof calibrateMml>,
+    'itemIds' | 'difficulty' | 'standardError' | 'groups' | 'converged' | 'iterations' | 'logLikelihood'
+  > & { readonly excludedItems: readonly { readonly id: string; readonly reason: string }[] };
+  let partialCredit: ReturnType<typeof fitPartialCreditStudy> | undefined;
   try {
-    fit = calibrateMml(matrix, {
-      groups,
-      quadraturePoints,
-      maxIterations,
-      ...(anchors ? { anchors } : {}),
-    });
+    if (rubricItems.size > 0) {
+      partialCredit = fitPartialCreditStudy(matrix, rubricItems, groups, { quadraturePoints, maxIterations });
+      fit = partialCredit;
+    } else {
+      fit = calibrateMml(matrix, {
+        groups,
+        quadraturePoints,
+        maxIterations,
+        ...(anchors ? { anchors } : {}),
+      });
+    }
   } catch (error) {
     throw new AppError(
       'CALIBRATION_NOT_CONVERGED',
@@ -217,7 +266,10 @@ export async function calibrateStudy(
     uncalibrated.push({
       itemId: excluded.id,
       answers: answerCount.get(excluded.id) ?? 0,
-      reason: excluded.reason === 'no-responses' ? 'too-few-answers' : excluded.reason,
+      reason:
+        excluded.reason === 'no-responses'
+          ? 'too-few-answers'
+          : (excluded.reason as Exclude<UncalibratedItem['reason'], 'too-few-answers'>),
       moreNeeded: 0,
     });
   }
@@ -225,11 +277,26 @@ export async function calibrateStudy(
   // Fit statistics with every person at the WLE given the calibrated difficulties.
   const difficultyOf = new Map(fit.itemIds.map((id, i) => [id, fit.difficulty[i]!]));
   const columnDifficulties = Float64Array.from(matrix.itemIds, (id) => difficultyOf.get(id) ?? Number.NaN);
-  const persons = personEstimates(matrix, columnDifficulties);
+  const stepsOf = partialCredit?.steps;
+  const columnSteps = stepsOf ? matrix.itemIds.map((id) => stepsOf.get(id)) : undefined;
+  const persons = personEstimates(matrix, columnDifficulties, columnSteps);
   const abilities = new Float64Array(matrix.personIds.length).fill(Number.NaN);
   const rowOf = new Map(matrix.personIds.map((id, p) => [id, p]));
   for (const person of persons) abilities[rowOf.get(person.personId)!] = person.ability;
-  const itemFit = computeFitStatistics(matrix, columnDifficulties, abilities).items;
+  // Rasch mean-squares for right/wrong items (rubric columns skipped as NaN); partial credit
+  // mean-squares for rubric items.
+  const fitDifficulties = Float64Array.from(matrix.itemIds, (id, c) =>
+    stepsOf?.has(id) ? Number.NaN : columnDifficulties[c]!,
+  );
+  const itemFit = computeFitStatistics(matrix, fitDifficulties, abilities).items;
+  if (columnSteps) {
+    const rubricFit = pcmItemFit(matrix, columnSteps, abilities);
+    columnSteps.forEach((steps, c) => {
+      if (steps === undefined) return;
+      itemFit.infit[c] = rubricFit.infit[c]!;
+      itemFit.outfit[c] = rubricFit.outfit[c]!;
+    });
+  }
   const columnOf = new Map(matrix.itemIds.map((id, c) => [id, c]));
   const finite = (value: number) => (Number.isFinite(value) ? value : null);
 
@@ -248,14 +315,15 @@ export async function calibrateStudy(
 
   const draws =
     fit.converged && replicates > 0
-      ? bootstrapAbilityDistributions(matrix, difficultyOf, groups, { replicates, seed }).map((replicate) =>
-          replicate.map((g) => [round6(g.mean), round6(g.sd)] as const),
-        )
+      ? bootstrapAbilityDistributions(matrix, partialCredit?.dichotomous ?? difficultyOf, groups, {
+          replicates,
+          seed,
+        }).map((replicate) => replicate.map((g) => [round6(g.mean), round6(g.sd)] as const))
       : [];
 
   const labelOf = new Map(cohorts.map((c) => [c.id, c.label]));
   const settings: StoredCalibrationSettings = {
-    identification: anchors ? 'anchored' : 'first-cohort-mean',
+    identification: partialCredit ? 'mean-item-location' : anchors ? 'anchored' : 'first-cohort-mean',
     anchoredFrom: options.anchorTo ?? null,
     quadraturePoints,
     maxIterations,
@@ -271,12 +339,23 @@ export async function calibrateStudy(
       persons: g.persons,
     })),
     uncalibrated,
+    ...(partialCredit
+      ? {
+          partialCredit: {
+            items: [...partialCredit.steps].map(([itemId, steps]) => ({
+              itemId,
+              steps: steps.map(round6),
+              stepStandardErrors: (partialCredit?.stepStandardErrors.get(itemId) ?? []).map(round6),
+            })),
+          },
+        }
+      : {}),
     bootstrap: { replicates: draws.length, seed, draws },
   };
   const record: CalibrationRecord = {
     id: `cal-${randomUUID()}`,
     studyId,
-    method: 'mml',
+    method: partialCredit ? 'cml' : 'mml',
     settings,
     converged: fit.converged,
     iterations: fit.iterations,

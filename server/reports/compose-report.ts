@@ -1,7 +1,7 @@
 import type { ChartType } from '../charts/chart-spec.js';
 import { personSeparation } from '../scoring/rasch/person-separation.js';
 import type { CohortAttemptCounts, ScoredResponse } from '../storage/calibration-repository.js';
-import type { StoredGroup, StudyCalibration } from './calibrate-study.js';
+import { type StoredGroup, type StudyCalibration, storedRubricSteps } from './calibrate-study.js';
 import { chartTypePluralNames, taskLevelPhrases } from './chart-type-names.js';
 import { complexityLadder } from './complexity-ladder.js';
 import { percentileInterval } from './percentile-interval.js';
@@ -166,9 +166,11 @@ export function composeReport(input: ComposeInput): Report {
 
   const difficultyOf = new Map(calibration.items.map((i) => [i.itemId, i.difficulty]));
   const { matrix, cohortOfPerson } = studyResponseMatrix(input.responses, (id) => difficultyOf.has(id));
+  const rubricSteps = storedRubricSteps(calibration.settings);
   const persons = personEstimates(
     matrix,
     Float64Array.from(matrix.itemIds, (id) => difficultyOf.get(id)!),
+    rubricSteps.size > 0 ? matrix.itemIds.map((id) => rubricSteps.get(id)) : undefined,
   );
   const cohortOfAttempt = new Map(matrix.personIds.map((id, p) => [id, cohortOfPerson[p]!]));
 
@@ -333,8 +335,13 @@ export function composeReport(input: ComposeInput): Report {
     items,
     foot: {
       method:
-        'Rasch model, item difficulties and one normal ability distribution per cohort estimated together by marginal maximum likelihood ' +
-        `(Bock & Aitkin 1981; ${s.quadraturePoints} Gauss–Hermite points). Shares are expected values over the estimated distribution, ` +
+        (s.identification === 'mean-item-location'
+          ? 'Partial credit model (Masters 1982; right/wrong items are its one-step case): item parameters by conditional maximum likelihood, ' +
+            'rubric items placed at the mean of their two steps; then one normal ability distribution per cohort by marginal maximum likelihood ' +
+            `with the right/wrong items held at their values (Bock & Aitkin 1981; ${s.quadraturePoints} Gauss–Hermite points). Shares`
+          : 'Rasch model, item difficulties and one normal ability distribution per cohort estimated together by marginal maximum likelihood ' +
+            `(Bock & Aitkin 1981; ${s.quadraturePoints} Gauss–Hermite points). Shares`) +
+        ' are expected values over the estimated distribution, ' +
         'not raw percent correct, so cohorts that saw different items compare fairly. Person measures are Warm (1989) WLEs. ' +
         `Intervals: ${pct(level)} percentile bootstrap over respondents within cohorts, items held fixed (${replicates} replicates, seed ${s.bootstrap.seed}).`,
       thresholds:
@@ -348,7 +355,9 @@ export function composeReport(input: ComposeInput): Report {
         `${calibration.items.length} items calibrated, ${s.uncalibrated.length} not yet; ` +
         (s.identification === 'anchored'
           ? `items anchored to calibration ${s.anchoredFrom}.`
-          : `scale fixed by the first cohort's mean ability at 0 logits (${groups[0]?.label ?? ''}).`) +
+          : s.identification === 'mean-item-location'
+            ? 'scale fixed by the mean item location at 0 logits.'
+            : `scale fixed by the first cohort's mean ability at 0 logits (${groups[0]?.label ?? ''}).`) +
         (input.newerResponses > 0
           ? ` ${input.newerResponses} newer responses are not included; calibrate again to include them.`
           : ''),

@@ -4,7 +4,7 @@ import { findLatestCalibration, listScoredResponses } from '../storage/calibrati
 import { listCohorts } from '../storage/cohort-repository.js';
 import type { DbHandle } from '../storage/db-handle.js';
 import { listStudyResponses } from '../storage/response-repository.js';
-import { loadStudyCalibration } from './calibrate-study.js';
+import { loadStudyCalibration, storedRubricSteps } from './calibrate-study.js';
 import { personEstimates } from './person-estimates.js';
 import type { Report } from './report-types.js';
 import { studyResponseMatrix } from './study-response-matrix.js';
@@ -74,9 +74,11 @@ export async function exportPersonEstimates(
   const { matrix, cohortOfPerson } = studyResponseMatrix(responses, (id) => difficultyOf.has(id));
   const labelOf = new Map((await listCohorts(db, studyId)).map((c) => [c.id, c.label]));
   const cohortOf = new Map(matrix.personIds.map((id, p) => [id, cohortOfPerson[p]!]));
+  const rubricSteps = storedRubricSteps(calibration.settings);
   const estimates = personEstimates(
     matrix,
     Float64Array.from(matrix.itemIds, (id) => difficultyOf.get(id)!),
+    rubricSteps.size > 0 ? matrix.itemIds.map((id) => rubricSteps.get(id)) : undefined,
   );
   const backgroundOf = new Map<string, Record<string, string>>();
   if (options.background) {

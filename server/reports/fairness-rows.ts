@@ -16,6 +16,8 @@ export function fairnessRows(section: FairnessSection): ReportRow[] {
   add('', 'flagged_items', section.flaggedItemIds.length);
   for (const item of section.items) {
     add(item.itemId, 'ets_class', item.etsClass);
+    add(item.itemId, 'reference_answers', item.referenceAnswers);
+    add(item.itemId, 'focal_answers', item.focalAnswers);
     add(item.itemId, 'mh_d_dif', item.dDif);
     add(item.itemId, 'mh_d_dif_se', item.dDifStandardError);
     add(item.itemId, 'mh_chi_squared', item.chiSquared);

@@ -22,8 +22,14 @@ export type FairnessGrouping =
 
 export interface FairnessItem {
   readonly itemId: string;
-  /** 'A', 'B+', 'B-', 'C+', 'C-', or null when D-DIF cannot be estimated. */
+  /**
+   * 'A', 'B+', 'B-', 'C+', 'C-', or null when D-DIF cannot be estimated or a group gave the item fewer
+   * than {@link minAnswersPerGroupToClass} answers.
+   */
   readonly etsClass: string | null;
+  /** Answers to the item in the reference and the focal group. */
+  readonly referenceAnswers: number;
+  readonly focalAnswers: number;
   readonly flagged: boolean;
   /** MH D-DIF = −2.35 ln α_MH; negative: harder for the focal group. Null without an estimate. */
   readonly dDif: number | null;
@@ -76,6 +82,15 @@ export interface FairnessInput {
   /** Calibrated difficulty of each matrix column. */
   readonly difficulties: Float64Array;
 }
+
+/**
+ * Answers an item needs in each group before the screen classes it (a floor chosen here, no source:
+ * published practice asks for more, from memory a few hundred per group). With rotated booklets
+ * most items fall below it; give the items a fairness check must see to everyone (a common block).
+ * Below it, chance alone flags about one item in a hundred (seen in the demo's design), and a few
+ * flags among a hundred items would be read as findings.
+ */
+export const minAnswersPerGroupToClass = 50;
 
 const round = (value: number, digits = 3) => {
   const f = 10 ** digits;
@@ -151,13 +166,27 @@ export function fairnessSection(input: FairnessInput): FairnessSection {
     focalLabel: input.focalLabel,
     purify: true,
   });
-  const flagged = new Set(dif.flaggedItemIds);
-  const items: FairnessItem[] = dif.items.map((item) => {
+  const width = matrix.itemIds.length;
+  const answers = (column: number, group: number) => {
+    let n = 0;
+    for (let p = 0; p < groups.length; p++)
+      if (groups[p] === group && matrix.scores[p * width + column] !== MISSING) n++;
+    return n;
+  };
+  const counts = matrix.itemIds.map(
+    (_, c) => [answers(c, REFERENCE_GROUP), answers(c, FOCAL_GROUP)] as const,
+  );
+  const enough = (c: number) => Math.min(...counts[c]!) >= minAnswersPerGroupToClass;
+  const flagged = new Set(dif.flaggedItemIds.filter((id) => enough(matrix.itemIds.indexOf(id))));
+  const flaggedItemIds = dif.flaggedItemIds.filter((id) => flagged.has(id));
+  const items: FairnessItem[] = dif.items.map((item, column) => {
     const mh = item.mantelHaenszel;
     const effect = mh.kind === 'test' ? mh.effect : null;
     return {
       itemId: item.itemId,
-      etsClass: item.etsClass,
+      etsClass: enough(column) ? item.etsClass : null,
+      referenceAnswers: counts[column]![0],
+      focalAnswers: counts[column]![1],
       flagged: flagged.has(item.itemId),
       dDif: effect ? round(effect.dDif) : null,
       dDifStandardError: effect ? round(effect.dDifStandardError) : null,
@@ -166,7 +195,7 @@ export function fairnessSection(input: FairnessInput): FairnessSection {
       strataUsed: mh.strataUsed,
       raschContrast: item.rasch ? round(item.rasch.contrast) : null,
       raschStandardError: item.rasch ? round(item.rasch.standardError) : null,
-      explanation: item.explanation,
+      explanation: flagged.has(item.itemId) ? item.explanation : null,
     };
   });
   const allItems = compareGroups(matrix, groups, difficulties);
@@ -188,9 +217,9 @@ export function fairnessSection(input: FairnessInput): FairnessSection {
   }
   const names = (ids: readonly string[]) => ids.join(', ');
   const sentence =
-    dif.flaggedItemIds.length === 0
+    flaggedItemIds.length === 0
       ? `No item was flagged: at the same total score, ${input.focalLabel} and ${input.referenceLabel} found every item about equally hard.`
-      : `${dif.flaggedItemIds.length} item${dif.flaggedItemIds.length === 1 ? '' : 's'} flagged (${names(dif.flaggedItemIds)}). ` +
+      : `${flaggedItemIds.length} item${flaggedItemIds.length === 1 ? '' : 's'} flagged (${names(flaggedItemIds)}). ` +
         `On all ${allItems.itemCount} items, ${input.focalLabel} minus ${input.referenceLabel} is ${allItems.difference.toFixed(2)} logits` +
         (flaggedExcluded
           ? `; without the flagged items it is ${flaggedExcluded.difference.toFixed(2)} logits (${flaggedExcluded.itemCount} items).`
@@ -202,14 +231,15 @@ export function fairnessSection(input: FairnessInput): FairnessSection {
     referencePersons: dif.referencePersons,
     focalPersons: dif.focalPersons,
     items,
-    flaggedItemIds: dif.flaggedItemIds,
+    flaggedItemIds: flaggedItemIds,
     comparison: { allItems, flaggedExcluded },
     method: dif.method,
     smallStrata:
       'People are matched on their total score (the studied item included; with rotated booklets, the same booklet and score). ' +
       'A score stratum holding only one group carries no information and is skipped; empty cells inside a used stratum are kept as they are (no 0.5 added). ' +
       'When every stratum lacks one group the item has no estimate and is not classed. ' +
-      'B or C needs both a large enough D-DIF and statistical significance, so small groups flag only large effects.',
+      'B or C needs both a large enough D-DIF and statistical significance, so small groups flag only large effects. ' +
+      `An item is classed only when each group gave it at least ${minAnswersPerGroupToClass} answers; with rotated booklets, put the items to check in the study's common block (commonItems) so everyone answers them.`,
     sentence,
   };
 }

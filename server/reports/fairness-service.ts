@@ -6,7 +6,7 @@ import { studySettingsSchema } from '../delivery/study-settings.js';
 import { AppError } from '../errors.js';
 import type { ScoredResponse } from '../storage/calibration-repository.js';
 import type { DbHandle } from '../storage/db-handle.js';
-import type { StudyCalibration } from './calibrate-study.js';
+import { type StudyCalibration, storedRubricSteps } from './calibrate-study.js';
 import { type FairnessGrouping, type FairnessSection, fairnessSection } from './fairness-section.js';
 import { studyResponseMatrix } from './study-response-matrix.js';
 
@@ -48,7 +48,11 @@ export async function buildFairnessSection(
       field: 'query.fairness',
     });
   }
-  const difficultyOf = new Map(calibration.items.map((i) => [i.itemId, i.difficulty]));
+  // Right/wrong items only: the Mantel-Haenszel screen and the Rasch contrast are dichotomous.
+  const rubricSteps = storedRubricSteps(calibration.settings);
+  const difficultyOf = new Map(
+    calibration.items.filter((i) => !rubricSteps.has(i.itemId)).map((i) => [i.itemId, i.difficulty]),
+  );
   const { matrix, cohortOfPerson } = studyResponseMatrix(responses, (id) => difficultyOf.has(id));
   let referenceLabel: string;
   let focalLabel: string;

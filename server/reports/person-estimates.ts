@@ -1,3 +1,4 @@
+import { estimateAbilityPcm } from '../scoring/rasch/estimate-ability-pcm.js';
 import { estimateAbilityWle } from '../scoring/rasch/estimate-ability-wle.js';
 import { MISSING, type ResponseMatrix } from '../scoring/response-matrix.js';
 
@@ -21,12 +22,19 @@ export interface PersonEstimate {
  *   Psychometrika 54(3), 427-450.
  * @param matrix responses (0/1, MISSING)
  * @param difficulties b of each matrix column; NaN marks an item without a calibrated difficulty
+ * @param steps partial credit steps of each column scored 0-1-2 (undefined for right/wrong columns):
+ *   a person who answered such an item is estimated by the partial credit WLE (estimateAbilityPcm,
+ *   which equals the Rasch WLE on right/wrong items)
  * @returns the estimates of persons with at least one calibrated answer, in matrix order
  * @example
  * personEstimates({ personIds: ['a'], itemIds: ['x', 'y'], scores: Uint8Array.of(1, 0) },
  *   Float64Array.of(0, 0))[0].ability; // 0 (one right, one wrong on two equal items)
  */
-export function personEstimates(matrix: ResponseMatrix, difficulties: Float64Array): PersonEstimate[] {
+export function personEstimates(
+  matrix: ResponseMatrix,
+  difficulties: Float64Array,
+  steps?: readonly (readonly number[] | undefined)[],
+): PersonEstimate[] {
   const itemCount = matrix.itemIds.length;
   if (difficulties.length !== itemCount) throw new Error('personEstimates requires one difficulty per item');
   const out: PersonEstimate[] = [];
@@ -34,15 +42,24 @@ export function personEstimates(matrix: ResponseMatrix, difficulties: Float64Arr
   matrix.personIds.forEach((personId, p) => {
     let answered = 0;
     let rawScore = 0;
+    let partialCredit = false;
+    const itemSteps: (readonly number[])[] = [];
+    const itemScores: number[] = [];
     for (let i = 0; i < itemCount; i++) {
       const x = matrix.scores[p * itemCount + i]!;
       const b = difficulties[i]!;
       if (x === MISSING || Number.isNaN(b)) continue;
       answeredDifficulties[answered++] = b;
       rawScore += x;
+      const own = steps?.[i];
+      if (own !== undefined) partialCredit = true;
+      itemSteps.push(own ?? [b]);
+      itemScores.push(x);
     }
     if (answered === 0) return;
-    const estimate = estimateAbilityWle(answeredDifficulties.slice(0, answered), rawScore);
+    const estimate = partialCredit
+      ? (estimateAbilityPcm(itemSteps, itemScores) as { estimate: number; standardError: number })
+      : estimateAbilityWle(answeredDifficulties.slice(0, answered), rawScore);
     out.push({
       personId,
       ability: estimate.estimate,

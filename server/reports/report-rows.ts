@@ -1,6 +1,8 @@
 import { stringify } from 'csv-stringify/sync';
 import { fairnessRows } from './fairness-rows.js';
+import { pilotRows } from './pilot-rows.js';
 import type { Interval, Report } from './report-types.js';
+import { rubricAgreementRows } from './rubric-agreement-rows.js';
 
 /** Columns of the report's CSV, in order. */
 export const reportCsvColumns = [
@@ -15,7 +17,16 @@ export const reportCsvColumns = [
 
 /** One number (or text) of the report with its interval: a CSV row and an HTML `<data>` key. */
 export interface ReportRow {
-  readonly section: 'calibration' | 'audience' | 'profile' | 'ladder' | 'comparison' | 'item' | 'fairness';
+  readonly section:
+    | 'calibration'
+    | 'audience'
+    | 'profile'
+    | 'ladder'
+    | 'comparison'
+    | 'item'
+    | 'fairness'
+    | 'rubric'
+    | 'pilot';
   /** 'all', a cohort id, or '' when the row belongs to no audience. */
   readonly audience: string;
   /** What is measured: '' (the audience itself), `<chartType>/<level>`, or an item id. */
@@ -131,6 +142,8 @@ export function reportRows(report: Report): ReportRow[] {
     add('item', '', item.itemId, 'dont_know_share', item.dontKnowShare);
   }
   if (report.fairness) rows.push(...fairnessRows(report.fairness));
+  if (report.rubric) rows.push(...rubricAgreementRows(report.rubric));
+  if (report.pilots) rows.push(...pilotRows(report.pilots));
   return rows;
 }
 

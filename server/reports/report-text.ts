@@ -1,4 +1,5 @@
 import { chartTypePluralNames } from './chart-type-names.js';
+import { pilotSectionText } from './pilot-section.js';
 import type { Interval, Report } from './report-types.js';
 
 const percent = (share: number) => `${Math.round(share * 100)}%`;
@@ -37,6 +38,15 @@ export function reportToText(report: Report): string {
         `  Largest gain: ${chartTypePluralNames[biggest.chartType]} (${biggest.level}), ${biggest.shareAtRpDifference >= 0 ? '+' : ''}${Math.round(biggest.shareAtRpDifference * 100)} points in the share who can handle them.`,
       );
   }
+  const fairness = report.fairness;
+  if (fairness) {
+    lines.push('');
+    lines.push(`Fairness, ${fairness.focalLabel} vs ${fairness.referenceLabel}: ${fairness.sentence}`);
+    for (const item of fairness.items)
+      if (item.flagged && item.explanation) lines.push(`  ${item.explanation}`);
+    lines.push(`  ${fairness.smallStrata}`);
+  }
+  if (report.pilots) lines.push(...pilotSectionText(report.pilots));
   const flagged = report.items.filter((i) => i.infitFlag || i.outfitFlag).length;
   lines.push('');
   lines.push(

@@ -6,7 +6,9 @@
 import type { ChartType } from '../charts/chart-spec.js';
 import type { UncalibratedItem } from './calibrate-study.js';
 import type { FairnessSection } from './fairness-section.js';
+import type { PilotSection } from './pilot-section.js';
 import type { TaskLevel } from './readability-profile.js';
+import type { RubricAgreementSection } from './rubric-agreement-section.js';
 
 /** A confidence interval (percentile bootstrap); null when the calibration has no replicates. */
 export type Interval = { readonly lower: number; readonly upper: number } | null;
@@ -121,7 +123,7 @@ export interface Report {
     readonly responsesUntil: string | null;
     /** Scored responses that arrived after the calibration (not in this report). */
     readonly newerResponses: number;
-    readonly identification: 'first-cohort-mean' | 'anchored';
+    readonly identification: 'first-cohort-mean' | 'anchored' | 'mean-item-location';
     readonly anchoredFrom: string | null;
     readonly itemsCalibrated: number;
     readonly uncalibrated: readonly UncalibratedItem[];
@@ -141,6 +143,10 @@ export interface Report {
   readonly items: readonly ReportItem[];
   /** DIF between two groups, when the report was asked for it (see fairness-section.ts). */
   readonly fairness?: FairnessSection;
+  /** Pilot charts of the study and their results (see pilot-section.ts); absent without pilots. */
+  readonly pilots?: PilotSection;
+  /** Rater agreement and partial credit steps of rubric items, when the study has rubric scores. */
+  readonly rubric?: RubricAgreementSection;
   /** Method, thresholds, calibration and caution, in words. */
   readonly foot: { method: string; thresholds: string; calibration: string; caution: string };
 }

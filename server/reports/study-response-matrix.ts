@@ -15,7 +15,8 @@ export interface StudyResponseMatrix {
  * Builds the matrix the calibration and the report read: one row per attempt with a scored answer to
  * a kept item, one column per kept item (by item id; a new item version keeps its id's column, and the
  * calibration records the newest version seen). "I don't know" is 0 (stored so); an item never shown is
- * missing, never wrong.
+ * missing, never wrong. A short-text answer enters with its rubric score (0, 1, 2) once scored; until
+ * then it is missing.
  *
  * @param responses scored responses of the study
  * @param keepItem which item ids enter (e.g. those with enough answers, or those a calibration holds)
@@ -25,8 +26,10 @@ export function studyResponseMatrix(
   keepItem: (itemId: string) => boolean,
 ): StudyResponseMatrix {
   const kept = responses.filter((r) => keepItem(r.itemId));
+  // 0/1 from a key, 0/1/2 from a rubric (the final score of its raters).
   const matrix = buildResponseMatrix(
     kept.map((r) => ({ person: r.attemptId, item: r.itemId, score: r.score })),
+    { allowedScores: [0, 1, 2] },
   );
   const cohortOf = new Map<string, string>();
   const finished = new Map<string, boolean>();

@@ -1,6 +1,7 @@
 import type { Selectable } from 'kysely';
 import type { AttemptsTable } from './database.js';
 import type { DbHandle } from './db-handle.js';
+import { preparedQuery } from './prepared-query.js';
 
 export type AttemptRow = Selectable<AttemptsTable>;
 export type AttemptStatus = AttemptsTable['status'];
@@ -70,6 +71,29 @@ export async function findAttemptById(db: DbHandle, id: string): Promise<Attempt
   return row ? attemptRowToRecord(row) : undefined;
 }
 
+/** The attempt columns `updateAttempt` may change, by the record field that holds each. */
+const updatableColumns = {
+  status: 'status',
+  form: 'form',
+  background: 'background',
+  consentedAt: 'consented_at',
+  lastSeenAt: 'last_seen_at',
+  finishedAt: 'finished_at',
+} as const;
+type UpdatableField = keyof typeof updatableColumns;
+
+/** One prepared update per set of changed fields (at most 63; a handful in use). */
+const attemptUpdates = new Map<string, ReturnType<typeof preparedAttemptUpdate>>();
+
+function preparedAttemptUpdate(fields: readonly UpdatableField[]) {
+  return preparedQuery(fields.length + 1, (db, markers) =>
+    db
+      .updateTable('attempts')
+      .set(Object.fromEntries(fields.map((field, i) => [updatableColumns[field], markers[i]])))
+      .where('id', '=', markers[fields.length]!),
+  );
+}
+
 /** Writes the changed fields of an attempt (only those given). */
 export async function updateAttempt(
   db: DbHandle,
@@ -78,15 +102,20 @@ export async function updateAttempt(
     Pick<AttemptRecord, 'status' | 'form' | 'background' | 'consentedAt' | 'lastSeenAt' | 'finishedAt'>
   >,
 ): Promise<void> {
-  const set: Partial<Omit<AttemptRow, 'id' | 'cohort_id' | 'token_hash' | 'started_at'>> = {};
-  if (change.status !== undefined) set.status = change.status;
-  if (change.form !== undefined) set.form = JSON.stringify(change.form);
-  if (change.background !== undefined) set.background = JSON.stringify(change.background);
-  if (change.consentedAt !== undefined) set.consented_at = change.consentedAt;
-  if (change.lastSeenAt !== undefined) set.last_seen_at = change.lastSeenAt;
-  if (change.finishedAt !== undefined) set.finished_at = change.finishedAt;
-  if (Object.keys(set).length === 0) return;
-  await db.updateTable('attempts').set(set).where('id', '=', id).execute();
+  const fields = (Object.keys(updatableColumns) as UpdatableField[]).filter(
+    (field) => change[field] !== undefined,
+  );
+  if (fields.length === 0) return;
+  const values = fields.map((field) =>
+    field === 'form' || field === 'background' ? JSON.stringify(change[field]) : change[field],
+  );
+  const key = fields.join(',');
+  let update = attemptUpdates.get(key);
+  if (update === undefined) {
+    update = preparedAttemptUpdate(fields);
+    attemptUpdates.set(key, update);
+  }
+  await update(db, [...values, id]);
 }
 
 /** How many attempts a study has had so far (all cohorts): the next attempt's booklet counter. */
@@ -103,12 +132,21 @@ export async function countAttemptsInStudy(db: DbHandle, studyId: string): Promi
 /**
  * Takes the write lock on one attempt's row for the rest of the transaction (a no-op update, which
  * both engines lock: PostgreSQL the row, SQLite the database), so two requests of one attempt, such
- * as a retried answer racing its original, run one after the other. Changes nothing stored.
+ * as a retried answer racing its original, run one after the other. Changes nothing stored. Returns
+ * the locked attempt (`RETURNING`: one statement instead of a lock and a read), or undefined.
  */
-export async function lockAttemptByTokenHash(db: DbHandle, tokenHash: string): Promise<void> {
-  await db
+export async function lockAttemptByTokenHash(
+  db: DbHandle,
+  tokenHash: string,
+): Promise<AttemptRecord | undefined> {
+  const [row] = await lockByTokenHash(db, [tokenHash]);
+  return row ? attemptRowToRecord(row) : undefined;
+}
+
+const lockByTokenHash = preparedQuery(1, (db, [tokenHash]) =>
+  db
     .updateTable('attempts')
     .set((eb) => ({ last_seen_at: eb.ref('last_seen_at') }))
-    .where('token_hash', '=', tokenHash)
-    .execute();
-}
+    .where('token_hash', '=', tokenHash!)
+    .returningAll(),
+);

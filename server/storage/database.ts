@@ -136,6 +136,71 @@ export interface PilotItemsTable {
   created_at: string;
 }
 
+/** One answer to a pilot chart (see migrations/…-create-pilot-responses.ts); never in `responses`. */
+export interface PilotResponsesTable {
+  id: string;
+  attempt_id: string;
+  pilot_id: string;
+  /** 0-based place of the pilot among everything the attempt showed (bank items and pilots). */
+  position: number;
+  answer_kind: 'answer' | 'dont-know';
+  /** JSON of the answer as given (option ids); null for 'dont-know'. */
+  answer: string | null;
+  /** 1 when the keyed option alone was chosen, else 0 ("I don't know" is 0). */
+  score: number;
+  server_ms: number | null;
+  received_at: string;
+}
+
+/** One rater's rubric score of a short-text answer (see migrations/…-create-rubric-scores.ts). */
+export interface RubricScoresTable {
+  id: string;
+  /** The scored answer; erasing it removes its scores. */
+  response_id: string;
+  /** The team token's label of the rater (the audit actor). */
+  rater: string;
+  /** 0, 1 or 2 on the item's rubric. */
+  score: number;
+  scored_at: string;
+}
+
+/** One retire or reinstate of an item (append-only; see migrations/…-create-item-status-changes.ts). */
+export interface ItemStatusChangesTable {
+  id: string;
+  item_id: string;
+  /** The item's version (items.version) when the change was made. */
+  item_version: number;
+  /** 1, 2, 3, ... per item; the highest is the item's status now. */
+  change_number: number;
+  status: 'retired' | 'active';
+  reason: string;
+  /** The token label of who made the change (the audit actor). */
+  actor: string;
+  changed_at: string;
+}
+
+/** Tuned Sympson–Hetter values of a study (see migrations/…-create-exposure-controls.ts). */
+export interface ExposureControlsTable {
+  id: string;
+  study_id: string;
+  /** The calibration whose difficulties the values were tuned on. */
+  calibration_id: string;
+  /** JSON: the adaptive settings the values hold for (server/delivery/stored-exposure-control.ts). */
+  settings: string;
+  /** SHA-256 (hex) of `settings` as stored: the lookup key. */
+  settings_hash: string;
+  /** JSON: { itemId: K }, K in [0, 1]. */
+  item_parameters: string;
+  target_max_exposure: number;
+  /** Largest exposure of the simulation the values were checked on. */
+  achieved_max_exposure: number;
+  /** JSON: seed, persons, rounds and per-round results of the tuning. */
+  simulation: string;
+  created_at: string;
+  /** The audit actor (token label or 'cli'). */
+  created_by: string;
+}
+
 export interface Database {
   access_tokens: AccessTokensTable;
   items: ItemsTable;
@@ -147,6 +212,10 @@ export interface Database {
   calibration_items: CalibrationItemsTable;
   audit_log: AuditLogTable;
   pilot_items: PilotItemsTable;
+  item_status_changes: ItemStatusChangesTable;
+  exposure_controls: ExposureControlsTable;
+  pilot_responses: PilotResponsesTable;
+  rubric_scores: RubricScoresTable;
 }
 
 export type ItemRow = Selectable<ItemsTable>;

@@ -9,12 +9,10 @@ import path from 'node:path';
 import type { FastifyInstance } from 'fastify';
 import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import { buildApp } from '../../server/app.js';
 import { loadBank } from '../../server/bank/load-bank.js';
-import { loadConfig } from '../../server/config.js';
 import { generatingDifficulty } from '../../server/demo/generating-difficulty.js';
-import { migrateToLatest } from '../../server/storage/migrate.js';
-import { type TestDatabase, testEngines } from '../helpers/test-databases.js';
+import { listenOnSqlite } from '../helpers/browser-setup.js';
+import type { TestDatabase } from '../helpers/test-databases.js';
 import { insertSimulatedStudy, normalDraws } from '../reports/simulated-study.js';
 import { artifactsFolder, browserAvailable, launchBrowser } from './browser-harness.js';
 
@@ -33,10 +31,6 @@ describe.runIf(browserAvailable())('report page in print', () => {
   let reportUrl = '';
 
   beforeAll(async () => {
-    database = await testEngines()
-      .find((engine) => engine.engine === 'sqlite')!
-      .open();
-    await migrateToLatest(database.db);
     const bank = await loadBank('items');
     // Every active choice item of the bank, at the demo's invented generating difficulties, so the
     // summary has as many chart types and sentences as the demo's.
@@ -55,21 +49,21 @@ describe.runIf(browserAvailable())('report page in print', () => {
           multiStep: item.features.multiStep,
         }),
       }));
-    const { studyId } = await insertSimulatedStudy(database.db, {
-      items,
-      seed: 11,
-      itemsPerPerson: 12,
-      cohorts: [
-        { label: 'Weekday visitors', abilities: normalDraws(21, 110, 0, 1) },
-        { label: 'Weekend visitors', abilities: normalDraws(22, 110, 0.4, 1.1) },
-      ],
-    });
-    const config = loadConfig({}, { databaseUrl: database.url, adminToken });
-    app = await buildApp({ config, db: database.db, bank, logger: false });
-    await app.listen({ port: 0, host: '127.0.0.1' });
-    const address = app.server.address();
-    if (address === null || typeof address === 'string') throw new Error('no TCP address');
-    const base = `http://127.0.0.1:${address.port}`;
+    let studyId = '';
+    const prepare = async ({ db }: TestDatabase) => {
+      ({ studyId } = await insertSimulatedStudy(db, {
+        items,
+        seed: 11,
+        itemsPerPerson: 12,
+        cohorts: [
+          { label: 'Weekday visitors', abilities: normalDraws(21, 110, 0, 1) },
+          { label: 'Weekend visitors', abilities: normalDraws(22, 110, 0.4, 1.1) },
+        ],
+      }));
+    };
+    const started = await listenOnSqlite({ bank, adminToken, prepare });
+    ({ app, database } = started);
+    const base = started.baseUrl;
     reportUrl = `${base}/studies/${studyId}/report`;
     browser = await launchBrowser();
     // bypassCSP only so the test can add a print style that hides everything after the summary.

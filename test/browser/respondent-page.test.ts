@@ -2,6 +2,7 @@ import type { Browser, Page } from 'playwright-core';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import type { StudySettingsInput } from '../../server/delivery/study-settings.js';
 import { en } from '../../server/pages/strings/en.js';
+import { cspViolationsOf, recordCspViolations } from '../helpers/browser-setup.js';
 import {
   answerCurrentItem,
   browserAvailable,
@@ -75,15 +76,7 @@ describe.skipIf(!available)('respondent page in chromium', { timeout: 90_000 }, 
   /** A fresh browser context (own localStorage) that records blocked content. */
   async function newPage(viewport: { width: number; height: number }) {
     const context = await browser.newContext({ viewport });
-    // The page's own record of anything the Content-Security-Policy blocked (this init script is
-    // injected by the browser's devtools protocol, so the policy does not apply to it).
-    await context.addInitScript(`(() => {
-      const record = [];
-      Object.defineProperty(window, 'cspViolations', { value: record });
-      document.addEventListener('securitypolicyviolation', (event) => {
-        record.push(event.effectiveDirective + ' ' + event.blockedURI);
-      });
-    })()`);
+    await recordCspViolations(context);
     const page = await context.newPage();
     page.on('console', (message) => {
       if (/Content.Security.Policy/i.test(message.text())) cspViolations.push(message.text());
@@ -99,7 +92,7 @@ describe.skipIf(!available)('respondent page in chromium', { timeout: 90_000 }, 
   }
 
   function blockedByPolicy(page: Page): Promise<string[]> {
-    return page.evaluate<string[]>('[...window.cspViolations]');
+    return cspViolationsOf(page);
   }
 
   /** Screenshot, axe and touch-target checks of the current screen. */

@@ -1,6 +1,6 @@
 import { rmSync } from 'node:fs';
-import { afterAll, beforeAll, describe, expect, it, vi } from 'vitest';
-import { runCli } from '../../server/main.js';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { runCliCapturedText } from '../helpers/run-cli.js';
 import { type StoredStudy, storeSimulatedStudy } from './stored-study.js';
 
 /**
@@ -17,24 +17,7 @@ describe('plotgauge report', () => {
     if (stored) rmSync(stored.folder, { recursive: true, force: true });
   });
 
-  async function run(args: string[]): Promise<{ code: number; out: string; errors: string[] }> {
-    const chunks: string[] = [];
-    const errors: string[] = [];
-    const write = vi.spyOn(process.stdout, 'write').mockImplementation((chunk: string | Uint8Array) => {
-      chunks.push(String(chunk));
-      return true;
-    });
-    const log = vi.spyOn(console, 'log').mockImplementation((line: string) => void chunks.push(`${line}\n`));
-    const error = vi.spyOn(console, 'error').mockImplementation((line: string) => void errors.push(line));
-    try {
-      const code = await runCli(args);
-      return { code, out: chunks.join(''), errors };
-    } finally {
-      write.mockRestore();
-      log.mockRestore();
-      error.mockRestore();
-    }
-  }
+  const run = runCliCapturedText;
 
   it('prints the text summary with the ladder sentences and the caution', async () => {
     const { code, out, errors } = await run(['report', stored.studyId, '--database', stored.url]);
@@ -52,6 +35,46 @@ describe('plotgauge report', () => {
     expect(out).toMatch(/Reading ceiling: the hardest task that at least 80% of this audience handles/);
     expect(out).toContain('This report describes an audience, not a person.');
     expect(out).toContain('It is not for high-stakes decisions about anyone.');
+  });
+
+  it('adds the Fairness section with --fairness, and refuses a malformed one in one line', async () => {
+    const [a, b] = stored.cohortIds;
+    const { code, out, errors } = await run([
+      'report',
+      stored.studyId,
+      '--database',
+      stored.url,
+      '--fairness',
+      `cohorts:${a},${b}`,
+    ]);
+    expect(errors).toEqual([]);
+    expect(code).toBe(0);
+    expect(out).toMatch(/^Fairness, Island library vs Harbour school: /m);
+    expect(out).toContain('An item is classed only when each group gave it at least 50 answers');
+    const csv = await run([
+      'report',
+      stored.studyId,
+      '--database',
+      stored.url,
+      '--fairness',
+      `cohorts:${a},${b}`,
+      '--format',
+      'csv',
+    ]);
+    expect(csv.out).toContain('fairness,,,reference_persons,40');
+    const bad = await run(['report', stored.studyId, '--database', stored.url, '--fairness', 'yes,no']);
+    expect(bad.code).toBe(2);
+    expect(bad.errors.join('\n')).toContain('plotgauge: --fairness: fairness must be');
+    const unknown = await run([
+      'report',
+      stored.studyId,
+      '--database',
+      stored.url,
+      '--fairness',
+      'works-with-data:yes,no',
+    ]);
+    expect(unknown.code).toBe(2);
+    expect(unknown.errors.join('\n')).toContain('no background question "works-with-data"');
   });
 
   it('writes the report JSON with --format json and refuses an unknown format', async () => {

@@ -125,8 +125,8 @@ describe('plotgauge study / cohort / export', () => {
     expect(rows).toHaveLength(3);
     expect(rows.map((r) => r.item_id)).toEqual([
       'isle-ferry-busiest-day',
-      'isle-ferry-monday-count',
       'town-ferry-quietest-day',
+      'isle-ferry-monday-count',
     ]);
     expect(rows.every((r) => r.answer_kind === 'dont-know' && r.score === '0' && r.client_ms === '700')).toBe(
       true,

@@ -1,8 +1,6 @@
-import { randomUUID } from 'node:crypto';
 import type { FastifyInstance } from 'fastify';
 import request from 'supertest';
 import { afterAll, beforeAll, describe, expect, it } from 'vitest';
-import type { ItemInput } from '../../server/bank/item-schema.js';
 import { advance, nextStep, startAdaptiveState } from '../../server/delivery/adaptive/adaptive-state.js';
 import {
   adaptiveSeedOf,
@@ -10,66 +8,23 @@ import {
   loadAdaptiveDelivery,
   startAdaptiveForm,
 } from '../../server/delivery/adaptive-delivery.js';
-import { type AttemptForm, attemptFormSchema } from '../../server/delivery/attempt-form.js';
+import type { AttemptForm } from '../../server/delivery/attempt-form.js';
 import { hashAttemptToken } from '../../server/delivery/attempt-token.js';
 import { deliveryBankFrom } from '../../server/delivery/bank-adapter.js';
 import { studySettingsSchema } from '../../server/delivery/study-settings.js';
-import { insertCalibration } from '../../server/storage/calibration-repository.js';
-import { validItem } from '../bank/valid-item.js';
+import {
+  answerStepsToEnd,
+  calibratedAdaptiveStudy,
+  stepAnswerFor,
+  stepDifficultyOf,
+  stepItemCount,
+  stepItems,
+} from '../helpers/adaptive-study.js';
+import { bruteForceEap } from '../helpers/brute-force-eap.js';
 import { admin, bearer, deliveryApp, studyWithCohort } from '../helpers/delivery-fixture.js';
+import { storedAttempt } from '../helpers/stored-attempt.js';
 import { loadTestBank } from '../helpers/test-bank.js';
 import { type TestDatabase, testEngines } from '../helpers/test-databases.js';
-
-/**
- * 24 invented single-choice items: 16 at level `read`, 8 at `interpret`, with invented calibrated
- * difficulties spread evenly over [−2.3, 2.3]. Option b is right on every item.
- */
-const itemCount = 24;
-function adaptiveItems(): ItemInput[] {
-  const base = validItem();
-  return Array.from({ length: itemCount }, (_, i) => ({
-    ...base,
-    id: `isle-ferry-step-${String(i + 1).padStart(2, '0')}`,
-    level: i % 3 === 2 ? ('interpret' as const) : ('read' as const),
-    features: {},
-  }));
-}
-const difficultyOf = (id: string): number => {
-  const i = Number(id.slice(-2)) - 1;
-  return -2.3 + (4.6 * i) / (itemCount - 1);
-};
-
-/** The invented respondent: right exactly on the items easier than `ability`. */
-const answerFor = (itemId: string, ability: number) => ({
-  itemId,
-  answer: { kind: 'choice', optionIds: [difficultyOf(itemId) < ability ? 'b' : 'a'] },
-});
-
-/**
- * EAP by brute force on a fine grid (posterior mean and SD of θ under a normal prior and the
- * Rasch likelihood): the definition, independent of the engine's Gauss–Hermite rule.
- * @see Bock, R. D., & Mislevy, R. J. (1982). Adaptive EAP estimation of ability in a
- *   microcomputer environment. Applied Psychological Measurement 6, 431–444 (eq. 1–2).
- */
-function bruteForceEap(b: number[], x: number[], mean: number, sd: number): { ability: number; se: number } {
-  let w0 = 0;
-  let w1 = 0;
-  let w2 = 0;
-  for (let k = 0; k <= 16000; k++) {
-    const t = -10 + (20 * k) / 16000;
-    let logL = -0.5 * ((t - mean) / sd) ** 2;
-    for (let j = 0; j < b.length; j++) {
-      const p = 1 / (1 + Math.exp(-(t - b[j]!)));
-      logL += Math.log(x[j] === 1 ? p : 1 - p);
-    }
-    const w = Math.exp(logL);
-    w0 += w;
-    w1 += w * t;
-    w2 += w * t * t;
-  }
-  const ability = w1 / w0;
-  return { ability, se: Math.sqrt(w2 / w0 - ability * ability) };
-}
 
 for (const engine of testEngines()) {
   describe.skipIf(engine.skipReason !== undefined)(`${engine.engine}: adaptive delivery`, () => {
@@ -77,84 +32,17 @@ for (const engine of testEngines()) {
     let app: FastifyInstance;
 
     /** A study created fixed, calibrated (invented difficulties, cohort N(0.3, 0.9²)), switched to adaptive. */
-    async function adaptiveStudy(settings: Record<string, unknown>) {
-      const study = await studyWithCohort(app, { maxItems: 10 });
-      const calibrationId = randomUUID();
-      await insertCalibration(
-        database.db,
-        {
-          id: calibrationId,
-          studyId: study.studyId,
-          method: 'mml',
-          settings: {
-            groups: [{ cohortId: study.cohortId, label: 'x', mean: 0.3, sd: 0.9, meanStandardError: 0.1 }],
-          },
-          converged: true,
-          iterations: 12,
-          logLikelihood: -100,
-          responseCount: 500,
-          responsesUntil: null,
-          createdAt: new Date().toISOString(),
-        },
-        adaptiveItems().map((item) => ({
-          itemId: item.id,
-          itemVersion: 1,
-          difficulty: difficultyOf(item.id),
-          standardError: 0.2,
-          infit: 1,
-          outfit: 1,
-          anchored: false,
-        })),
-      );
-      const changed = await request(app.server)
-        .patch(`/api/admin/studies/${study.studyId}`)
-        .set(admin)
-        .send({ settings: { title: 'Ferry steps', design: 'adaptive', ...settings } });
-      if (changed.status !== 200)
-        throw new Error(`switch: ${changed.status} ${JSON.stringify(changed.body)}`);
-      return { ...study, calibrationId };
-    }
+    const adaptiveStudy = (settings: Record<string, unknown>) =>
+      calibratedAdaptiveStudy(app, database, 10, { title: 'Ferry steps', design: 'adaptive', ...settings });
 
     /** Joins, agrees, and answers as a respondent of `ability` until the attempt finishes. */
-    async function runAttempt(
-      joinCode: string,
-      ability: number,
-      beforeAnswer?: (n: number) => Promise<void>,
-    ) {
-      const joined = await request(app.server).post('/api/join').send({ code: joinCode });
-      expect(joined.status).toBe(201);
-      const token: string = joined.body.token;
-      let state = (
-        await request(app.server).post('/api/attempt/consent').set(bearer(token)).send({ agree: true })
-      ).body;
-      const shown: string[] = [];
-      while (state.step === 'item') {
-        shown.push(state.item.itemId);
-        await beforeAnswer?.(shown.length);
-        const reply = await request(app.server)
-          .post('/api/attempt/responses')
-          .set(bearer(token))
-          .send(answerFor(state.item.itemId, ability));
-        expect(reply.status).toBe(201);
-        state = reply.body.attempt;
-        if (shown.length > 60) throw new Error('runaway attempt');
-      }
-      return { token, state, shown };
-    }
+    const runAttempt = (joinCode: string, ability: number) => answerStepsToEnd(app, joinCode, ability);
 
-    async function storedForm(token: string): Promise<{ id: string; form: AttemptForm; status: string }> {
-      const row = await database.db
-        .selectFrom('attempts')
-        .selectAll()
-        .where('token_hash', '=', hashAttemptToken(token))
-        .executeTakeFirstOrThrow();
-      const form = typeof row.form === 'string' ? JSON.parse(row.form) : row.form;
-      return { id: row.id, form: attemptFormSchema.parse(form), status: row.status };
-    }
+    const storedForm = (token: string) => storedAttempt(database, token);
 
     beforeAll(async () => {
       database = await engine.open();
-      app = await deliveryApp(database, await loadTestBank(adaptiveItems()));
+      app = await deliveryApp(database, await loadTestBank(stepItems()));
     });
     afterAll(async () => {
       await app?.close();
@@ -201,7 +89,7 @@ for (const engine of testEngines()) {
       // The prior is the cohort's estimate in the calibration.
       expect(adaptiveState.prior).toEqual({ mean: 0.3, sd: 0.9, source: 'cohort' });
       const reference = bruteForceEap(
-        shown.map(difficultyOf),
+        shown.map(stepDifficultyOf),
         responses.map((r) => Number(r.score)),
         0.3,
         0.9,
@@ -211,7 +99,7 @@ for (const engine of testEngines()) {
       expect(adaptiveState.standardError).toBeLessThanOrEqual(0.7);
       // One item earlier the SE was still above target (else it would have stopped then).
       const before = bruteForceEap(
-        shown.slice(0, -1).map(difficultyOf),
+        shown.slice(0, -1).map(stepDifficultyOf),
         responses.slice(0, -1).map((r) => Number(r.score)),
         0.3,
         0.9,
@@ -232,7 +120,7 @@ for (const engine of testEngines()) {
         adaptive: { seTarget: 0.1, contentBalance: 'none' },
       });
       const { token, shown } = await runAttempt(study.joinCode, 0.1);
-      expect(shown).toHaveLength(itemCount);
+      expect(shown).toHaveLength(stepItemCount);
       expect((await storedForm(token)).form.adaptive?.stop).toBe('pool-exhausted');
     });
 
@@ -253,7 +141,7 @@ for (const engine of testEngines()) {
       const firstReply = await request(app.server)
         .post('/api/attempt/responses')
         .set(bearer(token))
-        .send(answerFor(first, 0));
+        .send(stepAnswerFor(first, 0));
       expect(firstReply.status).toBe(201);
       // Move the first item's shown time 61 s into the past (consent stays recent).
       const { form } = await storedForm(token);
@@ -267,7 +155,7 @@ for (const engine of testEngines()) {
       const reply = await request(app.server)
         .post('/api/attempt/responses')
         .set(bearer(token))
-        .send(answerFor(second, 0));
+        .send(stepAnswerFor(second, 0));
       expect(reply.status).toBe(201);
       expect(reply.body.attempt.step).toBe('finished');
       const after = await storedForm(token);
@@ -301,7 +189,7 @@ for (const engine of testEngines()) {
       // Replay with the pure engine from the stored seed and the same answers.
       const delivery = await loadAdaptiveDelivery(
         database.db,
-        deliveryBankFrom(await loadTestBank(adaptiveItems()), () => {
+        deliveryBankFrom(await loadTestBank(stepItems()), () => {
           throw new Error('not rendered in this test');
         }),
         study.studyId,
@@ -318,7 +206,7 @@ for (const engine of testEngines()) {
         const step = nextStep(state, delivery.bank, delivery.rules, 0);
         if (step.kind === 'stop') break;
         replay.push(step.itemId);
-        state = advance(state, step, difficultyOf(step.itemId) < 0.8 ? 1 : 0);
+        state = advance(state, step, stepDifficultyOf(step.itemId) < 0.8 ? 1 : 0);
       }
       expect(replay).toEqual(shown);
       // Same seed twice through the delivery functions → the same sequence; another seed differs somewhere.
@@ -335,7 +223,7 @@ for (const engine of testEngines()) {
           adaptive: started.adaptive,
         };
         while (f.adaptive?.pending) {
-          advanceAdaptiveForm(delivery, f, difficultyOf(f.adaptive.pending.itemId) < 0 ? 1 : 0, 0);
+          advanceAdaptiveForm(delivery, f, stepDifficultyOf(f.adaptive.pending.itemId) < 0 ? 1 : 0, 0);
         }
         return f.items.map((i) => i.itemId).join(',');
       };

@@ -52,7 +52,36 @@ describe('buildBooklets', () => {
     }
   });
 
+  it('opens every booklet with the common block and rotates the rest (documented example)', () => {
+    expect(buildBooklets(['a', 'b', 'c', 'd', 'e', 'f'], 3, ['a'])).toEqual([
+      ['a', 'b', 'c'],
+      ['a', 'c', 'd'],
+      ['a', 'd', 'e'],
+      ['a', 'e', 'f'],
+      ['a', 'f', 'b'],
+    ]);
+    // the demo's shape: 107 items, 12 per booklet, 2 common → 105 rotate in blocks of 5: 21 booklets
+    const booklets = buildBooklets(ids(107), 12, ['item-2', 'item-54']);
+    expect(booklets).toHaveLength(21);
+    for (const booklet of booklets) {
+      expect(booklet.slice(0, 2)).toEqual(['item-2', 'item-54']);
+      expect(booklet).toHaveLength(12);
+      expect(new Set(booklet).size).toBe(12);
+    }
+    const seen = new Map<string, number>();
+    for (const id of booklets.flat()) seen.set(id, (seen.get(id) ?? 0) + 1);
+    expect(seen.get('item-2')).toBe(21);
+    expect(seen.get('item-1')).toBe(2);
+    expect(seen.size).toBe(107);
+    expect(bookletsAreLinked(booklets)).toBe(true);
+    expect(buildBooklets(['a', 'b', 'c'], 5, ['b'])).toEqual([['b', 'a', 'c']]);
+  });
+
   it('refuses nonsense', () => {
+    expect(() => buildBooklets(['a', 'b', 'c'], 4, ['z'])).toThrow(
+      'common items to be distinct items of the pool',
+    );
+    expect(() => buildBooklets(['a', 'b', 'c', 'd', 'e'], 3, ['a', 'b'])).toThrow('at least 2 places left');
     expect(() => buildBooklets(['a', 'a'], 1)).toThrow('buildBooklets requires unique item ids');
     expect(() => buildBooklets(['a', 'b'], 0)).toThrow(/at least 1/);
     expect(() => buildBooklets(['a', 'b', 'c'], 1)).toThrow(/at least 2 items per booklet/);

@@ -94,12 +94,13 @@ for (const engine of testEngines()) {
           expect(row?.position).toBe(seen.length - 1);
           state = reply.body.attempt;
         }
+        // The pool in balanced order (server/delivery/balanced-pool-order.ts): levels spread first.
         expect(seen).toEqual([
           'isle-ferry-busiest-day',
-          'isle-ferry-monday-count',
           'isle-ferry-quiet-days',
           'isle-ferry-why-tuesday',
           'town-ferry-quietest-day',
+          'isle-ferry-monday-count',
         ]);
         expect(state.step).toBe('finished');
         // End summary: 3 scored correct (choice, numeric within tolerance 5, multiple choice as a set);
@@ -111,10 +112,10 @@ for (const engine of testEngines()) {
           rows.map((r) => [r.item_id, r.answer_kind, r.score === null ? null : Number(r.score)]),
         ).toEqual([
           ['isle-ferry-busiest-day', 'answer', 1],
-          ['isle-ferry-monday-count', 'answer', 1],
           ['isle-ferry-quiet-days', 'answer', 1],
           ['isle-ferry-why-tuesday', 'answer', null],
           ['town-ferry-quietest-day', 'dont-know', 0],
+          ['isle-ferry-monday-count', 'answer', 1],
         ]);
         for (const row of rows) {
           expect(Number(row.client_ms)).toBe(4200);
@@ -185,7 +186,7 @@ for (const engine of testEngines()) {
           });
         expect(again.status).toBe(200);
         expect(again.body.status).toBe('already-stored');
-        expect(again.body.attempt.item.itemId).toBe('isle-ferry-monday-count');
+        expect(again.body.attempt.item.itemId).toBe('isle-ferry-quiet-days');
         const changed = await request(app.server)
           .post('/api/attempt/responses')
           .set(bearer(token))

@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { fairnessSection } from '../../server/reports/fairness-section.js';
+import { MISSING } from '../../server/scoring/response-matrix.js';
 import { simulateDif } from '../scoring/dif/dif-fixtures.js';
 
 describe('fairnessSection', () => {
@@ -34,6 +35,34 @@ describe('fairnessSection', () => {
     // the two DIF shifts cancel on average, so leaving both out moves the gap by little
     expect(Math.abs(flaggedExcluded!.difference - allItems.difference)).toBeLessThan(0.1);
     expect(section.sentence).toContain('2 items flagged (i5, i14)');
+  });
+
+  it('does not class an item with fewer than 50 answers in a group, however large its DIF', () => {
+    // i5 (focal +0.8 logits) answered by only 49 focal persons: too few to class; the rest unchanged
+    const scores = Uint8Array.from(matrix.scores);
+    let kept = 0;
+    for (let p = 0; p < groups.length; p++) {
+      if (groups[p] !== 1) continue;
+      if (kept < 49) kept++;
+      else scores[p * 20 + 4] = MISSING;
+    }
+    const thin = fairnessSection({
+      grouping: { kind: 'cohorts', reference: 'north', focal: 'south' },
+      referenceLabel: 'Cohort North',
+      focalLabel: 'Cohort South',
+      matrix: { ...matrix, scores },
+      groups,
+      difficulties,
+    });
+    const i5 = thin.items[4]!;
+    expect(i5.focalAnswers).toBe(49);
+    expect(i5.referenceAnswers).toBe(section.items[4]!.referenceAnswers);
+    expect(i5.etsClass).toBeNull();
+    expect(i5.flagged).toBe(false);
+    expect(i5.explanation).toBeNull();
+    expect(thin.flaggedItemIds).toEqual(['i14']);
+    expect(thin.smallStrata).toContain('at least 50 answers');
+    expect(section.items[4]!.focalAnswers).toBeGreaterThanOrEqual(50);
   });
 
   it('rejects an empty group and a difficulty vector of the wrong length', () => {

@@ -23,6 +23,7 @@ const publicRoutes = [
   'GET /api/openapi.json',
   'GET /assets/:name',
   'GET /bank/gallery.css',
+  'GET /console-assets/:name',
   'GET /health',
   'GET /join',
   'GET /join/:code',

@@ -55,9 +55,13 @@ for (const engine of testEngines()) {
         'calibration_items',
         'calibrations',
         'cohorts',
+        'exposure_controls',
+        'item_status_changes',
         'items',
         'pilot_items',
+        'pilot_responses',
         'responses',
+        'rubric_scores',
         'studies',
       ]);
     });

@@ -1,6 +1,6 @@
 /**
  * Simulation study of adaptive delivery: simulated audiences answer under the Rasch model, once
- * through adaptive attempts and once through the fixed form of the same bank, and the two are
+ * through adaptive attempts and once through fixed forms of the same bank, and the designs are
  * compared on the items needed for the same precision, the error of the final estimate against
  * the truth, and item exposure.
  *
@@ -8,14 +8,19 @@
  * - Truth: each person's ability is drawn from the audience's N(mean, sd²); answers follow the
  *   Rasch model with the bank's difficulties (no parameter error: the bank is taken as true).
  * - Prior: each audience's own N(mean, sd²), as the cohort estimate of an earlier calibration
- *   would give it, unless `prior` fixes one prior for everyone. Both designs use the same prior.
- * - Fixed form: the items a non-adaptive study would choose for the whole population: the order in
- *   which the selector itself takes items at the pooled audience mean with k = 1 and the same
- *   content balancing (the best-targeted fixed form, and a demanding comparison). A fixed form of
- *   length L is the first L items of that order.
- * - Same precision: the fixed length is the shortest L whose mean posterior SD over the audience is
- *   at most the adaptive attempts' mean posterior SD. On a fixed form the EAP and its SD depend on
- *   the raw score only, so each L needs only L + 1 EAP evaluations.
+ *   would give it, unless `prior` fixes one prior for everyone. Every design uses the same prior.
+ * - Fixed forms, one form for all audiences (so the comparison is what a team would run):
+ *   `spanning` (spanning-form.ts: content-balanced, items at evenly spaced difficulty quantiles of
+ *   each area; the headline comparison), `bestTargeted` (the order in which the selector itself
+ *   takes items at the pooled audience mean with k = 1 and the same content balancing: a form
+ *   peaked at the centre, the most demanding comparison for the centre audience) and `poolOrder`
+ *   (the pool's own order, as the fixed design delivers a pool longer than the form).
+ * - Same precision: a fixed design's length is the shortest L whose mean posterior SD over the
+ *   audience is at most the adaptive attempts' mean posterior SD. On a fixed form the EAP and its
+ *   SD depend on the raw score only, so each L needs only L + 1 EAP evaluations.
+ * - Bound: `bound` (information-bound.ts) is the item ratio the bank and the content rule allow
+ *   at best: the most informative items at each person's true ability against the spanning form,
+ *   both in Fisher information at the truth.
  *
  * @see Weiss, D. J. (1982). Improving measurement quality and efficiency with adaptive testing.
  *   Applied Psychological Measurement 6(4), 473–492 (adaptive tests needing about half the items of
@@ -27,7 +32,9 @@ import { seededRandom } from '../../scoring/seeded-random.js';
 import type { AdaptiveBank } from './adaptive-bank.js';
 import type { AdaptiveSettings } from './adaptive-settings.js';
 import { advance, nextStep, type StopReason, startAdaptiveState } from './adaptive-state.js';
+import { type InformationBound, informationBound } from './information-bound.js';
 import { selectNextItem } from './select-next-item.js';
+import { spanningForm } from './spanning-form.js';
 
 /** One simulated audience: label, size and generating ability distribution (logits). */
 export interface SimulatedAudience {
@@ -44,7 +51,7 @@ export interface SimulationInput {
   readonly seed: number;
   /** One prior for everyone; absent = each audience's own N(mean, sd²). */
   readonly prior?: { readonly mean: number; readonly sd: number };
-  /** Also run the fixed forms (default true; exposure tuning turns it off). */
+  /** Also run the fixed forms and the information bound (default true; exposure tuning turns it off). */
   readonly compareFixed?: boolean;
 }
 
@@ -68,18 +75,23 @@ export interface DesignAccuracy {
 
 export type FixedFormAccuracy = DesignAccuracy & { readonly length: number };
 
+export type AdaptiveAccuracy = DesignAccuracy & {
+  readonly stopReasons: Readonly<Record<StopReason, number>>;
+};
+
+/** The fixed designs compared, in table order (see the file comment). */
+export const fixedDesigns = ['spanning', 'bestTargeted', 'poolOrder'] as const;
+export type FixedDesign = (typeof fixedDesigns)[number];
+
 export interface AudienceResult {
   readonly audience: SimulatedAudience;
-  readonly adaptive: DesignAccuracy & { readonly stopReasons: Readonly<Record<StopReason, number>> };
-  /**
-   * The best-targeted fixed form of the same precision (see the file comment); null when even the
-   * whole bank does not reach it.
-   */
-  readonly fixed: FixedFormAccuracy | null;
-  /** The fixed form in the pool's own order (items by id, as the fixed design delivers them). */
-  readonly poolOrder: FixedFormAccuracy | null;
-  /** Adaptive mean items / best-targeted fixed length (null without such a form). */
-  readonly itemRatio: number | null;
+  readonly adaptive: AdaptiveAccuracy;
+  /** The information bound on the item ratio (null when fixed forms are off). */
+  readonly bound: InformationBound | null;
+  /** Each fixed design at the adaptive precision; null when even the whole bank does not reach it. */
+  readonly fixed: Readonly<Record<FixedDesign, FixedFormAccuracy | null>>;
+  /** Adaptive mean items / fixed length, per fixed design (null without such a form). */
+  readonly itemRatio: Readonly<Record<FixedDesign, number | null>>;
 }
 
 export interface SimulationResult {
@@ -90,7 +102,9 @@ export interface SimulationResult {
   readonly selectionRate: Float64Array;
   readonly maxExposure: number;
   readonly neverUsed: number;
-  /** Bank indices in fixed-form order. */
+  /** Mean adaptive items per person over everyone: the mean exposure is this / bank size. */
+  readonly meanItems: number;
+  /** Bank indices of the best-targeted order. */
   readonly fixedOrder: Int32Array;
   readonly persons: number;
 }
@@ -98,15 +112,15 @@ export interface SimulationResult {
 /**
  * Runs the simulation study.
  *
- * Cost: persons × adaptive length × (selection + one EAP over the items so far), plus, per
- * audience, Σ_L (L + 1) EAP evaluations up to the fixed length found.
+ * Cost: persons × adaptive length × (selection + one EAP over the items so far), plus, per audience
+ * and fixed design, Σ_L (L + 1) EAP evaluations up to the length found, plus the bound.
  *
  * @param input bank, audiences, adaptive settings, seed, optional common prior.
- * @returns per-audience accuracy of both designs and the adaptive exposure rates.
+ * @returns per-audience accuracy of every design and the adaptive exposure rates.
  * @throws when there is no audience or an audience has no persons or a non-positive SD.
  * @example
  * simulateAdaptive({ bank, audiences: [{ label: 'mean 0', mean: 0, sd: 1, persons: 500 }],
- *   settings, seed: 1 }).audiences[0].itemRatio; // e.g. 0.6
+ *   settings, seed: 1 }).audiences[0].itemRatio.spanning; // e.g. 0.6
  */
 export function simulateAdaptive(input: SimulationInput): SimulationResult {
   const { bank, audiences, settings, seed } = input;
@@ -121,8 +135,20 @@ export function simulateAdaptive(input: SimulationInput): SimulationResult {
   const pooledMean = audiences.reduce((sum, a) => sum + a.mean * a.persons, 0) / totalPersons;
   const fixedOrder = fixedFormOrder(bank, pooledMean);
   const bankOrder = Int32Array.from({ length: itemCount }, (_, i) => i);
+  const formsOf: Record<FixedDesign, (length: number) => Int32Array> = {
+    spanning: (length) => spanningForm(bank, length),
+    bestTargeted: (length) => fixedOrder.subarray(0, length),
+    poolOrder: (length) => bankOrder.subarray(0, length),
+  };
+  const longest: Record<FixedDesign, number> = {
+    spanning: spanningForm(bank, itemCount).length,
+    bestTargeted: fixedOrder.length,
+    poolOrder: itemCount,
+  };
   const administeredAll = new Float64Array(itemCount);
   const selectedAll = new Float64Array(itemCount);
+  let itemsAll = 0;
+  const compare = input.compareFixed ?? true;
   const results = audiences.map((audience, a): AudienceResult => {
     const prior = input.prior ?? { mean: audience.mean, sd: audience.sd };
     const truthRandom = seededRandom(mix(seed, a, 0));
@@ -135,20 +161,36 @@ export function simulateAdaptive(input: SimulationInput): SimulationResult {
       administeredAll[i]! += adaptive.administered[i]!;
       selectedAll[i]! += adaptive.selected[i]!;
     }
+    itemsAll += adaptive.accuracy.items * audience.persons;
+    const fixedAt = (design: FixedDesign, target: number) =>
+      runFixed(
+        bank,
+        formsOf[design],
+        longest[design],
+        truth,
+        prior,
+        target,
+        settings.seTarget,
+        mix(seed, a, 2),
+      );
     const target = adaptive.accuracy.meanStandardError;
-    const compare = input.compareFixed ?? true;
-    const fixed = compare
-      ? runFixed(bank, fixedOrder, truth, prior, target, settings.seTarget, mix(seed, a, 2))
-      : null;
-    const poolOrder = compare
-      ? runFixed(bank, bankOrder, truth, prior, target, settings.seTarget, mix(seed, a, 2))
-      : null;
+    const fixed = {
+      spanning: compare ? fixedAt('spanning', target) : null,
+      bestTargeted: compare ? fixedAt('bestTargeted', target) : null,
+      poolOrder: compare ? fixedAt('poolOrder', target) : null,
+    };
+    const ratio = (form: FixedFormAccuracy | null) =>
+      form === null ? null : adaptive.accuracy.items / form.length;
     return {
       audience,
       adaptive: adaptive.accuracy,
+      bound: compare ? informationBound(bank, truth, prior, settings) : null,
       fixed,
-      poolOrder,
-      itemRatio: fixed === null ? null : adaptive.accuracy.items / fixed.length,
+      itemRatio: {
+        spanning: ratio(fixed.spanning),
+        bestTargeted: ratio(fixed.bestTargeted),
+        poolOrder: ratio(fixed.poolOrder),
+      },
     };
   });
   const exposure = administeredAll.map((count) => count / totalPersons);
@@ -158,6 +200,7 @@ export function simulateAdaptive(input: SimulationInput): SimulationResult {
     selectionRate: selectedAll.map((count) => count / totalPersons),
     maxExposure: Math.max(...exposure),
     neverUsed: exposure.filter((rate) => rate === 0).length / itemCount,
+    meanItems: itemsAll / totalPersons,
     fixedOrder,
     persons: totalPersons,
   };
@@ -249,7 +292,8 @@ function runAdaptive(
 
 function runFixed(
   bank: AdaptiveBank,
-  order: Int32Array,
+  formAt: (length: number) => Int32Array,
+  longest: number,
   truth: Float64Array,
   prior: { mean: number; sd: number },
   targetMeanSe: number,
@@ -259,24 +303,24 @@ function runFixed(
   const n = truth.length;
   const answers = seededRandom(seed);
   const rawScore = new Int32Array(n);
-  const difficulty = new Float64Array(order.length);
-  for (let length = 1; length <= order.length; length++) {
-    const b = bank.difficulty[order[length - 1]!]!;
-    difficulty[length - 1] = b;
+  for (let length = 1; length <= longest; length++) {
+    // Each length is a form of its own (spanning forms are not nested): fresh answers to all of it.
+    const form = Float64Array.from(formAt(length), (i) => bank.difficulty[i]!);
+    rawScore.fill(0);
     for (let p = 0; p < n; p++) {
-      if (answers.uniform() < 1 / (1 + Math.exp(b - truth[p]!))) rawScore[p]!++;
+      for (let k = 0; k < form.length; k++) {
+        if (answers.uniform() < 1 / (1 + Math.exp(form[k]! - truth[p]!))) rawScore[p]!++;
+      }
     }
-    // EAP and posterior SD for every raw score 0..length on the first `length` items.
-    const form = difficulty.subarray(0, length);
-    const byScore = Array.from({ length: length + 1 }, (_, score) => {
-      const scores = new Uint8Array(length);
+    // EAP and posterior SD for every raw score 0..L on the form.
+    const byScore = Array.from({ length: form.length + 1 }, (_, score) => {
+      const scores = new Uint8Array(form.length);
       scores.fill(1, 0, score);
       return estimateAbilityEap(form, scores, { mean: prior.mean, sd: prior.sd, quadraturePoints: 21 });
     });
     let seSum = 0;
     for (let p = 0; p < n; p++) seSum += byScore[rawScore[p]!]!.standardError;
-    if (seSum / n > targetMeanSe && length < order.length) continue;
-    if (seSum / n > targetMeanSe) return null;
+    if (seSum / n > targetMeanSe) continue;
     let errorSum = 0;
     let squaredSum = 0;
     let reached = 0;
@@ -288,14 +332,14 @@ function runFixed(
       if (estimate.standardError <= seTarget) reached++;
     }
     return {
-      length,
-      items: length,
+      length: form.length,
+      items: form.length,
       meanStandardError: seSum / n,
       rmse: Math.sqrt(squaredSum / n),
       bias: errorSum / n,
       reachedTarget: reached / n,
       maxExposure: 1,
-      neverUsed: (bank.ids.length - length) / bank.ids.length,
+      neverUsed: (bank.ids.length - form.length) / bank.ids.length,
     };
   }
   return null;

@@ -7,8 +7,9 @@
  *   same numbers as a table in the command's output).
  */
 import { element, textElement } from '../../charts/svg.js';
+import { wrapText } from '../../charts/text-metrics.js';
 import { defaultTheme, type Theme } from '../../charts/theme.js';
-import type { SimulationResult } from './simulate-adaptive.js';
+import type { AudienceResult, SimulationResult } from './simulate-adaptive.js';
 
 /** What the picture states besides the result. */
 export interface SimulationChartOptions {
@@ -20,30 +21,39 @@ export interface SimulationChartOptions {
 }
 
 const designs = [
-  { key: 'adaptive', label: 'adaptive (mean items)' },
-  { key: 'fixed', label: 'fixed, best-targeted' },
+  { key: 'adaptive', label: 'adaptive (mean)' },
+  { key: 'bound', label: 'information bound (mean)' },
+  { key: 'spanning', label: 'fixed, spanning' },
+  { key: 'bestTargeted', label: 'fixed, peaked' },
   { key: 'poolOrder', label: 'fixed, pool order' },
 ] as const;
+type DesignKey = (typeof designs)[number]['key'];
+
+/** Items per person of one design for one audience (null: not run, or no fixed form reaches it). */
+function itemsOf(a: AudienceResult, key: DesignKey): number | null {
+  if (key === 'adaptive') return a.adaptive.items;
+  if (key === 'bound') return a.bound?.items ?? null;
+  return a.fixed[key]?.length ?? null;
+}
 
 /**
  * A short text alternative: one sentence per audience and one on exposure.
  *
  * @example
  * describeSimulation(result, 0.3);
- * // 'Audience mean -1: adaptive 22.3 items, best-targeted fixed form 25 items (ratio 0.89) ...'
+ * // 'mean -1: adaptive 22.3 items; fixed form spanning the bank 28 items (ratio 0.80, bound 0.84) ...'
  */
 export function describeSimulation(result: SimulationResult, maxExposure: number): string {
   const lines = result.audiences.map((a) => {
+    const span = a.fixed.spanning;
     const fixed =
-      a.fixed === null
-        ? 'no fixed form of the bank reaches the same precision'
-        : `best-targeted fixed form ${a.fixed.length} items`;
-    const pool =
-      a.poolOrder === null
-        ? 'pool-order form does not reach it'
-        : `pool-order fixed form ${a.poolOrder.length} items`;
-    const ratio = a.itemRatio === null ? '' : ` (ratio ${a.itemRatio.toFixed(2)})`;
-    return `${a.audience.label}: adaptive ${a.adaptive.items.toFixed(1)} items, ${fixed}${ratio}, ${pool}.`;
+      span === null
+        ? 'no spanning fixed form of the bank reaches the same precision'
+        : `fixed form spanning the bank ${span.length} items (ratio ${a.itemRatio.spanning!.toFixed(2)}${a.bound?.ratio == null ? '' : `, bound ${a.bound.ratio.toFixed(2)}`})`;
+    const peaked = a.fixed.bestTargeted;
+    const other =
+      peaked === null ? 'peaked form does not reach it' : `form peaked at the centre ${peaked.length} items`;
+    return `${a.audience.label}: adaptive ${a.adaptive.items.toFixed(1)} items; ${fixed}; ${other}.`;
   });
   lines.push(
     `Largest adaptive item exposure ${result.maxExposure.toFixed(2)} (allowed ${maxExposure}); ${(result.neverUsed * 100).toFixed(0)}% of the bank never used.`,
@@ -63,7 +73,7 @@ export function describeSimulation(result: SimulationResult, maxExposure: number
 export function renderSimulationChart(result: SimulationResult, options: SimulationChartOptions): string {
   const theme = options.theme ?? defaultTheme;
   const width = 900;
-  const height = 460;
+  const height = 660;
   const pad = theme.padding * 2;
   const font = theme.fontSize;
   const colours = theme.colours;
@@ -79,25 +89,30 @@ export function renderSimulationChart(result: SimulationResult, options: Simulat
       title,
     ),
   );
-  parts.push(
-    textElement(
-      'text',
-      { x: pad, y: pad + font.title + font.note + 8, 'font-size': font.note, fill: colours.mutedText },
-      options.subtitle,
-    ),
-  );
+  // The subtitle wraps onto at most three lines; the panels move down under it.
+  const subtitleLines = wrapText(options.subtitle, font.note, width - 2 * pad).slice(0, 3);
+  subtitleLines.forEach((line, k) => {
+    parts.push(
+      textElement(
+        'text',
+        {
+          x: pad,
+          y: pad + font.title + (font.note + 6) * (k + 1) + 2,
+          'font-size': font.note,
+          fill: colours.mutedText,
+        },
+        line,
+      ),
+    );
+  });
 
   // Left panel: horizontal bars, items needed per audience and design.
-  const top = 110;
+  const top = 90 + (font.note + 6) * subtitleLines.length;
   const left = pad + 110;
   const panelWidth = 330;
   const rows = result.audiences.length * (designs.length + 1);
-  const rowHeight = Math.min(22, (height - top - 70) / rows);
-  const lengths = result.audiences.flatMap((a) => [
-    a.adaptive.items,
-    a.fixed?.length ?? 0,
-    a.poolOrder?.length ?? 0,
-  ]);
+  const rowHeight = Math.min(22, (height - top - 100) / rows);
+  const lengths = result.audiences.flatMap((a) => designs.map((d) => itemsOf(a, d.key) ?? 0));
   const scaleMax = Math.max(1, ...lengths) * 1.1;
   const x = (v: number) => left + (v / scaleMax) * panelWidth;
   parts.push(
@@ -117,7 +132,7 @@ export function renderSimulationChart(result: SimulationResult, options: Simulat
       ),
     );
     designs.forEach((d, k) => {
-      const value = d.key === 'adaptive' ? a.adaptive.items : (a[d.key]?.length ?? null);
+      const value = itemsOf(a, d.key);
       const y = y0 + k * rowHeight;
       if (value === null) {
         parts.push(
@@ -142,14 +157,15 @@ export function renderSimulationChart(result: SimulationResult, options: Simulat
         textElement(
           'text',
           { x: x(value) + 4, y: y + rowHeight * 0.75, 'font-size': font.note, fill: colours.text },
-          value.toFixed(d.key === 'adaptive' ? 1 : 0),
+          value.toFixed(d.key === 'adaptive' || d.key === 'bound' ? 1 : 0),
         ),
       );
     });
   });
-  const legendY = height - 40;
   designs.forEach((d, k) => {
-    const lx = pad + k * 190;
+    // Legend in rows of three under the bars.
+    const legendY = height - 70 + Math.floor(k / 3) * 26;
+    const lx = pad + (k % 3) * 240;
     parts.push(element('rect', { x: lx, y: legendY, width: 14, height: 14, fill: colours.categorical[k]! }));
     parts.push(
       textElement(
@@ -163,7 +179,7 @@ export function renderSimulationChart(result: SimulationResult, options: Simulat
   // Right panel: exposure rates, highest first, with the allowed maximum.
   const rx = 540;
   const rw = width - rx - pad;
-  const ph = height - top - 90;
+  const ph = height - top - 130;
   const sorted = Float64Array.from(result.exposure).sort().reverse();
   const yMax = Math.max(0.05, sorted[0] ?? 0, options.maxExposure) * 1.1;
   const ey = (v: number) => top + ph - (v / yMax) * ph;

@@ -6,11 +6,13 @@
 import { randomUUID } from 'node:crypto';
 import { z } from 'zod';
 import { kebabIdSchema } from '../../bank/item-schema.js';
+import { chartSpecSchema, type StoredMap } from '../../charts/chart-spec.js';
 import { AppError } from '../../errors.js';
 import { insertAuditEntry } from '../../storage/audit-repository.js';
 import { type DbHandle, nowIso } from '../../storage/db-handle.js';
 import { insertPilot, type PilotRecord } from '../../storage/pilot-repository.js';
 import { requireStudy } from '../study-service.js';
+import { renderPilotChart } from './check-pilot-chart.js';
 import { checkPilotImage } from './check-pilot-image.js';
 
 /** Responses a pilot needs before it is calibrated, unless the author sets another number. */
@@ -31,16 +33,24 @@ export const pilotInputSchema = z
       }),
     /** The id of the one right option (required). */
     key: kebabIdSchema,
-    image: z.strictObject({
-      type: z.string().min(1).max(100),
-      /** base64 of the file; at most pilotImageMaxBytes once decoded (413 beyond; the route's body limit bounds the text). */
-      base64: z.string().min(1),
-    }),
+    image: z
+      .strictObject({
+        type: z.string().min(1).max(100),
+        /** base64 of the file; at most pilotImageMaxBytes once decoded (413 beyond; the route's body limit bounds the text). */
+        base64: z.string().min(1),
+      })
+      .optional(),
+    /** Or the chart in the bank's item format (data + encoding), drawn by the bank's renderer. */
+    chart: chartSpecSchema.optional(),
     minResponses: z.number().int().min(30).max(5000).default(defaultPilotMinResponses),
   })
   .refine((p) => p.options.some((o) => o.id === p.key), {
     message: 'the key must be the id of one of the options',
     path: ['key'],
+  })
+  .refine((p) => (p.image === undefined) !== (p.chart === undefined), {
+    message: 'give the chart either as an image or as a chart spec (exactly one of image and chart)',
+    path: ['image'],
   });
 export type PilotInput = z.infer<typeof pilotInputSchema>;
 
@@ -77,9 +87,20 @@ export async function addPilot(
   studyId: string,
   input: PilotInput,
   actor: string,
+  options: { readonly maps?: ReadonlyMap<string, StoredMap> } = {},
 ): Promise<PilotSummary> {
   await requireStudy(db, studyId);
-  const image = checkPilotImage(input.image);
+  const image =
+    input.chart !== undefined
+      ? {
+          type: 'image/svg+xml' as const,
+          bytes: Buffer.from(
+            renderPilotChart({ ...input, chart: input.chart }, options.maps ?? new Map()),
+            'utf8',
+          ),
+          removed: false,
+        }
+      : checkPilotImage(input.image!);
   const at = nowIso();
   const record: PilotRecord = {
     id: randomUUID(),
@@ -103,6 +124,7 @@ export async function addPilot(
     subject: studyId,
     details: {
       pilotId: record.id,
+      format: input.chart !== undefined ? 'chart' : 'image',
       mediaType: image.type,
       bytes: image.bytes.length,
       sanitized: image.removed,

@@ -492,6 +492,41 @@ function chartFigure(svgText) {
   return figure;
 }
 
+/**
+ * A chart served as an image (an uploaded chart): fetched with the attempt token and shown from a
+ * data: URL, which the page's img-src allows. The image carries the chart's alt text.
+ */
+function chartImageFigure(image) {
+  const img = h('img', { alt: image.alt });
+  void loadChartImage(img, image.src, generation);
+  return h('figure', { class: 'chart' }, img);
+}
+
+async function loadChartImage(img, src, started) {
+  for (let attempt = 0; attempt < 5 && started === generation; attempt++) {
+    try {
+      const token = store.get(tokenKey);
+      const response = await fetch(src, {
+        headers: token ? { authorization: `Bearer ${token}` } : {},
+        cache: 'no-store',
+        credentials: 'omit',
+      });
+      if (response.ok) {
+        const reader = new FileReader();
+        reader.addEventListener('load', () => {
+          if (typeof reader.result === 'string') img.src = reader.result;
+        });
+        reader.readAsDataURL(await response.blob());
+        return;
+      }
+      if (!isRetryableStatus(response.status)) return;
+    } catch {
+      // Network trouble: try again below.
+    }
+    await wait(retryDelay(attempt, Math.random()));
+  }
+}
+
 function itemScreen(current) {
   const item = current.item;
   const number = Math.min(current.progress.answered + 1, current.progress.total);
@@ -589,8 +624,10 @@ function itemScreen(current) {
         name: 'text',
         rows: 4,
         maxlength: maxLength,
-        'aria-describedby': 'answer-hint',
+        'aria-describedby': 'answer-hint answer-count',
       }),
+      // How much room is left, updated as the respondent types; read with the field, not announced per key.
+      h('p', { id: 'answer-count', class: 'hint text-count', text: t('textCount', { count: 0, maxLength }) }),
       h(
         'div',
         { class: 'options' },
@@ -600,6 +637,13 @@ function itemScreen(current) {
         }),
       ),
     );
+  }
+  const textArea = form.querySelector('#answer-text');
+  if (textArea) {
+    const count = form.querySelector('#answer-count');
+    textArea.addEventListener('input', () => {
+      count.textContent = t('textCount', { count: textArea.value.length, maxLength: textArea.maxLength });
+    });
   }
   // Typing an answer unticks "I don't know" (number and text questions).
   form.addEventListener('input', (event) => {
@@ -649,7 +693,12 @@ function itemScreen(current) {
         'aria-label': t('progressLabel'),
       }),
     ),
-    h('div', { class: 'item-layout' }, chartFigure(item.chartSvg), form),
+    h(
+      'div',
+      { class: 'item-layout' },
+      item.chartImage ? chartImageFigure(item.chartImage) : chartFigure(item.chartSvg),
+      form,
+    ),
   );
 }
 

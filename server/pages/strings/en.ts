@@ -58,6 +58,7 @@ export const en = {
   numberAtMost: 'Type a number of at most {max}.',
   textLabel: 'Your answer',
   textHint: 'Write a few words. You can use up to {maxLength} letters.',
+  textCount: '{count} of {maxLength} letters used.',
   answerMissing: 'Please pick an answer first. If you are not sure, choose "I don\'t know".',
   numberInvalid: 'That is not a number we can read. Please type digits only, like 12 or 3.5.',
   numberOutOfRange: 'Please type a number from {min} to {max}.',

@@ -23,6 +23,19 @@ export function gaussHermite(n: number): { nodes: Float64Array; weights: Float64
   if (!Number.isInteger(n) || n < 1 || n > MAX_POINTS) {
     throw new Error('gaussHermite requires an integer number of points in 1..200');
   }
+  // The rule depends on n alone: computed once per n, handed out as copies so no caller can change
+  // another's (EAP runs it once per answer in adaptive delivery and simulation).
+  let rule = computedRules.get(n);
+  if (rule === undefined) {
+    rule = computeRule(n);
+    computedRules.set(n, rule);
+  }
+  return { nodes: rule.nodes.slice(), weights: rule.weights.slice() };
+}
+
+const computedRules = new Map<number, { nodes: Float64Array; weights: Float64Array }>();
+
+function computeRule(n: number): { nodes: Float64Array; weights: Float64Array } {
   const nodes = new Float64Array(n);
   const weights = new Float64Array(n);
   // Off-diagonal of the Jacobi matrix: beta_k = sqrt(k / 2), k = 1..n-1.

@@ -125,7 +125,11 @@ export function calibrateLltm(
   groups.itemIndex.forEach((column, i) => {
     for (let j = 0; j < p; j++) centred[i * p + j] = design.weights[column * p + j]! - featureMeans[j]!;
   });
-  checkRank(centred, n, p, design.featureNames, options.collinearityTolerance ?? 1e-9);
+  // a column's size before centring: a constant column centres to rounding noise, not to exact zeros
+  const rawNorms = Float64Array.from({ length: p }, (_, j) =>
+    Math.hypot(...Array.from(groups.itemIndex, (column) => design.weights[column * p + j]!)),
+  );
+  checkRank(centred, rawNorms, n, p, design.featureNames, options.collinearityTolerance ?? 1e-9);
 
   const evaluate = (eta: Float64Array) => {
     const b = new Float64Array(n);
@@ -238,6 +242,7 @@ export function calibrateLltm(
  */
 function checkRank(
   centred: Float64Array,
+  rawNorms: Float64Array,
   n: number,
   p: number,
   names: readonly string[],
@@ -260,8 +265,9 @@ function checkRank(
     }
     const norm = Math.hypot(...residual);
     const scale = Math.hypot(...column);
-    if (scale === 0 || norm <= tolerance * scale) {
-      const involved = scale === 0 ? [] : combinationOf(column, centred, n, p, independent);
+    const constant = scale <= tolerance * rawNorms[j]!;
+    if (constant || norm <= tolerance * scale) {
+      const involved = constant ? [] : combinationOf(column, centred, n, p, independent);
       const others = involved.map((k) => `"${names[k]}"`);
       const what =
         others.length === 0

@@ -2,6 +2,7 @@ import { mkdirSync } from 'node:fs';
 import { dirname } from 'node:path';
 import SqliteDatabase from 'better-sqlite3';
 import { SqliteDialect } from 'kysely';
+import { withStatementCache } from './statement-cache.js';
 
 /**
  * The embedded engine. Settings, and why:
@@ -13,6 +14,7 @@ import { SqliteDialect } from 'kysely';
  * - `foreign_keys = ON`: SQLite leaves them off by default; PostgreSQL always enforces them.
  * - `busy_timeout = 5000`: a second process (a CLI command beside the server) waits for the
  *   write lock instead of failing at once.
+ * - Prepared statements are reused (`statement-cache.ts`).
  */
 export function createSqliteDialect(file: string, sync: 'full' | 'normal'): SqliteDialect {
   if (file !== ':memory:') mkdirSync(dirname(file), { recursive: true });
@@ -21,5 +23,5 @@ export function createSqliteDialect(file: string, sync: 'full' | 'normal'): Sqli
   database.pragma(`synchronous = ${sync === 'full' ? 'FULL' : 'NORMAL'}`);
   database.pragma('foreign_keys = ON');
   database.pragma('busy_timeout = 5000');
-  return new SqliteDialect({ database });
+  return new SqliteDialect({ database: withStatementCache(database) });
 }

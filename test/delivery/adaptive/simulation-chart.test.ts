@@ -30,8 +30,12 @@ describe('renderSimulationChart', () => {
     expect(svg).toContain('mean 0 &lt;&amp;&gt;');
     const used = Array.from(result.exposure).filter((r) => r > 0).length;
     const bars = (svg.match(/<rect /g) ?? []).length;
-    // background + 3 design bars + 3 legend swatches + one bar per used item
-    expect(bars).toBe(1 + 3 + 3 + used);
+    // background + 5 design bars (adaptive, bound, three fixed forms) + 5 legend swatches + one bar per used item
+    const audience = result.audiences[0]!;
+    expect(Object.values(audience.fixed).every((form) => form !== null)).toBe(true);
+    expect(bars).toBe(1 + 5 + 5 + used);
+    expect(svg).toContain('>information bound (mean)</text>');
+    expect(svg).toContain(`>${audience.bound!.items.toFixed(1)}</text>`);
     expect(renderSimulationChart(result, { seTarget: 0.5, maxExposure: 0.3, subtitle: 'x' })).toBe(
       renderSimulationChart(result, { seTarget: 0.5, maxExposure: 0.3, subtitle: 'x' }),
     );

@@ -100,4 +100,14 @@ describe('normalQuadrature', () => {
   it('rejects a non-positive sd', () => {
     expect(() => normalQuadrature(41, 0, 0)).toThrow('normalQuadrature requires');
   });
+
+  it('hands out copies of the computed rule, so changing one leaves the next call intact', () => {
+    const first = gaussHermite(5);
+    first.nodes[2] = 99;
+    first.weights[2] = 99;
+    const second = gaussHermite(5);
+    // A&S Table 25.10, n = 5: the middle node is 0 with weight 0.945308720482942.
+    expect(second.nodes[2]).toBe(0);
+    expect(second.weights[2]).toBeCloseTo(0.945308720482942, 14);
+  });
 });

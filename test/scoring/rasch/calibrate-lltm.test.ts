@@ -101,6 +101,14 @@ describe('calibrateLltm bad designs', () => {
         build(['marks', 'legend'], (i) => [i, 1]),
       ),
     ).toThrow('feature "legend" is the same for every item (collinear with the constant)');
+    // 0.7 averaged over 12 items is not exactly 0.7 in floating point: the centred column is rounding
+    // noise (about 1e-16), not zeros, and must still count as constant
+    expect(() =>
+      calibrateLltm(
+        matrix,
+        build(['marks', 'legend'], (i) => [i, 0.7]),
+      ),
+    ).toThrow('feature "legend" is the same for every item (collinear with the constant)');
     expect(() =>
       calibrateLltm(
         matrix,
