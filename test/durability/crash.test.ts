@@ -1,14 +1,13 @@
-import { type ChildProcess, spawn } from 'node:child_process';
+import type { ChildProcess } from 'node:child_process';
 import { createHash } from 'node:crypto';
 import { mkdtempSync, rmSync } from 'node:fs';
-import { createServer } from 'node:net';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
-import { fileURLToPath } from 'node:url';
 import Sqlite from 'better-sqlite3';
 import { sql } from 'kysely';
 import { afterAll, describe, expect, it } from 'vitest';
 import { createDatabase } from '../../server/storage/create-database.js';
+import { freePort, sleep, startServer } from './server-process.js';
 
 /**
  * Crash durability: the real server as a child process, a bounded load of concurrent respondents on
@@ -17,7 +16,6 @@ import { createDatabase } from '../../server/storage/create-database.js';
  * and `PRAGMA integrity_check` must say ok; on PostgreSQL (TEST_DATABASE_URL) two instances share
  * one fresh database and one of them is killed while clients fail over to the other.
  */
-const repo = fileURLToPath(new URL('../..', import.meta.url));
 const adminToken = 'durability-admin-token-0123';
 /**
  * The issue's size: 200 respondents at once, 20 answers each (about 15 s on SQLite and 35 s on two
@@ -28,19 +26,6 @@ const answersEach = Number(process.env.CRASH_ANSWERS ?? 20);
 /** How long the load may take: generous, as a loaded CI machine is slow (30 ms per answer on top). */
 const loadMs = 90_000 + respondents * answersEach * 30;
 
-function freePort(): Promise<number> {
-  return new Promise((resolve, reject) => {
-    const server = createServer();
-    server.once('error', reject);
-    server.listen(0, '127.0.0.1', () => {
-      const address = server.address();
-      server.close(() => resolve(typeof address === 'object' && address !== null ? address.port : 0));
-    });
-  });
-}
-
-const sleep = (ms: number) => new Promise((resolve) => setTimeout(resolve, ms));
-
 interface Ack {
   token: string;
   itemId: string;
@@ -49,46 +34,8 @@ interface Ack {
 
 const hashOf = (token: string) => createHash('sha256').update(token, 'utf8').digest('hex');
 
-function spawnServer(port: number, databaseUrl: string): ChildProcess {
-  return spawn(
-    process.execPath,
-    [
-      'scripts/plotgauge.js',
-      'serve',
-      '--port',
-      String(port),
-      '--host',
-      '127.0.0.1',
-      '--database',
-      databaseUrl,
-    ],
-    {
-      cwd: repo,
-      env: {
-        ...process.env,
-        ADMIN_TOKEN: adminToken,
-        ITEMS_DIR: 'items',
-        LOG_LEVEL: process.env.CRASH_LOG ? 'error' : 'warn',
-        SQLITE_SYNC: 'full',
-      },
-      stdio: process.env.CRASH_LOG ? ['ignore', 'inherit', 'inherit'] : 'ignore',
-    },
-  );
-}
-
-async function waitReady(port: number, proc: ChildProcess): Promise<ChildProcess> {
-  const until = Date.now() + 30_000;
-  while (Date.now() < until) {
-    try {
-      if ((await fetch(`http://127.0.0.1:${port}/ready`)).ok) return proc;
-    } catch {
-      // not listening yet
-    }
-    await sleep(100);
-  }
-  proc.kill('SIGKILL');
-  throw new Error('server did not become ready');
-}
+/** The server of these tests: the real `plotgauge serve`, durable commits, this file's admin token. */
+const serverEnv = { ADMIN_TOKEN: adminToken, LOG_LEVEL: process.env.CRASH_LOG ? 'error' : 'warn' };
 
 /**
  * Starts `instances` servers on one database, drives the load, SIGKILLs instance 0 after a third of
@@ -98,7 +45,7 @@ async function crashRun(databaseUrl: string, instances: number, running: ChildPr
   const ports: number[] = [];
   for (let i = 0; i < instances; i++) ports.push(await freePort());
   // One at a time: the first migrates, the next finds the schema current.
-  for (const port of ports) running.push(await waitReady(port, spawnServer(port, databaseUrl)));
+  for (const port of ports) running.push(await startServer(port, databaseUrl, serverEnv));
   const bases = ports.map((port) => `http://127.0.0.1:${port}`);
   const adminHeaders = { authorization: `Bearer ${adminToken}`, 'content-type': 'application/json' };
   const post = async (url: string, body: unknown) => {
@@ -179,7 +126,7 @@ async function crashRun(databaseUrl: string, instances: number, running: ChildPr
     acksAtKill = acks.length;
     running[0]?.kill('SIGKILL');
     await sleep(200);
-    running[0] = await waitReady(ports[0] as number, spawnServer(ports[0] as number, databaseUrl));
+    running[0] = await startServer(ports[0] as number, databaseUrl, serverEnv);
   })();
   await Promise.all([...Array.from({ length: respondents }, (_, i) => respondent(i)), killer]);
   for (const proc of running) {
