@@ -2,20 +2,7 @@ import { type EtsDifClass, etsDifClass } from '../scoring/dif/ets-dif-class.js';
 import { type MantelHaenszelResult, mantelHaenszel } from '../scoring/dif/mantel-haenszel.js';
 import { type RaschDifItem, raschDifContrast } from '../scoring/dif/rasch-dif-contrast.js';
 import { FOCAL_GROUP, REFERENCE_GROUP, scoreStrata } from '../scoring/dif/score-strata.js';
-import type { ResponseMatrix } from '../scoring/response-matrix.js';
-
-/** The matrix with only the given columns (same rows). */
-function keepColumns(matrix: ResponseMatrix, columns: readonly number[]): ResponseMatrix {
-  const n = matrix.personIds.length;
-  const width = matrix.itemIds.length;
-  const scores = new Uint8Array(n * columns.length);
-  for (let p = 0; p < n; p++) {
-    columns.forEach((c, j) => {
-      scores[p * columns.length + j] = matrix.scores[p * width + c]!;
-    });
-  }
-  return { personIds: matrix.personIds, itemIds: columns.map((c) => matrix.itemIds[c]!), scores };
-}
+import { keepColumns, type ResponseMatrix } from '../scoring/response-matrix.js';
 
 /** MH of each column, matched on the total over `matching` columns plus the studied one. */
 function mantelHaenszelMatched(

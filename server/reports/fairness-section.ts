@@ -4,7 +4,7 @@
  * comparison made again without the flagged items. Pure: no database.
  */
 import { FOCAL_GROUP, REFERENCE_GROUP } from '../scoring/dif/score-strata.js';
-import { MISSING, type ResponseMatrix } from '../scoring/response-matrix.js';
+import { keepColumns, MISSING, type ResponseMatrix } from '../scoring/response-matrix.js';
 import { difReport } from './dif-report.js';
 import { personEstimates } from './person-estimates.js';
 
@@ -97,19 +97,6 @@ const round = (value: number, digits = 3) => {
   const r = Math.round(value * f) / f;
   return Object.is(r, -0) ? 0 : r;
 };
-
-/** The matrix with only the given columns (same rows). */
-function keepColumns(matrix: ResponseMatrix, columns: readonly number[]): ResponseMatrix {
-  const n = matrix.personIds.length;
-  const width = matrix.itemIds.length;
-  const scores = new Uint8Array(n * columns.length);
-  for (let p = 0; p < n; p++) {
-    columns.forEach((c, j) => {
-      scores[p * columns.length + j] = matrix.scores[p * width + c]!;
-    });
-  }
-  return { personIds: matrix.personIds, itemIds: columns.map((c) => matrix.itemIds[c]!), scores };
-}
 
 function compareGroups(
   matrix: ResponseMatrix,

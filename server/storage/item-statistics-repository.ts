@@ -1,4 +1,4 @@
-import type { CalibrationItemRecord } from './calibration-repository.js';
+import { type CalibrationItemRecord, calibrationItemRowToRecord } from './calibration-repository.js';
 import type { DbHandle } from './db-handle.js';
 
 /** An item's parameters in the newest converged calibration that includes it. */
@@ -33,17 +33,10 @@ export async function latestItemCalibrations(db: DbHandle): Promise<Map<string, 
     .orderBy('c.id', 'desc')
     .execute();
   const latest = new Map<string, LatestItemCalibration>();
-  const numberOrNull = (value: number | null) => (value === null ? null : Number(value));
   for (const row of rows) {
     if (latest.has(row.item_id)) continue;
     latest.set(row.item_id, {
-      itemId: row.item_id,
-      itemVersion: Number(row.item_version),
-      difficulty: Number(row.difficulty),
-      standardError: numberOrNull(row.standard_error),
-      infit: numberOrNull(row.infit),
-      outfit: numberOrNull(row.outfit),
-      anchored: Number(row.anchored) === 1,
+      ...calibrationItemRowToRecord(row),
       calibrationId: row.calibration_id,
       studyId: row.study_id,
       calibratedAt: row.created_at,
