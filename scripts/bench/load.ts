@@ -4,7 +4,9 @@
  * real item bank, SQLITE_SYNC=full, answers acknowledged only after their commit), and autocannon
  * drives it from this process at 1, 16 and 64 concurrent clients; at each level a no-op route of the
  * same server (`GET /bench/noop`, every hook of the app, no work) is measured in the same run as the
- * baseline. Every request is a new answer (no idempotent replays): choice items get their first
+ * baseline, and so is a bare durable write (`POST /bench/bare-write`: one small row through the same
+ * group commit, acknowledged after its commit): what any acknowledged write costs here, whatever
+ * the answer route does besides. Every request is a new answer (no idempotent replays): choice items get their first
  * option, numeric items the keyed number, text items a short text, taken from a queue of attempts in
  * rounds so an attempt's next answer is sent only after its previous one was acknowledged.
  *
@@ -56,6 +58,7 @@ interface Row {
   noopPerSecond: number;
   noopP99: number;
   cpuPerNoop: number;
+  barePerSecond: number;
 }
 
 /** What one load slice measured. */
@@ -75,6 +78,10 @@ interface Slice {
 function runAutocannon(options: autocannon.Options, maxSeconds?: number): Promise<Slice> {
   return new Promise((resolve, reject) => {
     let timer: NodeJS.Timeout | undefined;
+    // Our own clock: with `amount`, autocannon stops at its next one-second tick, so its `duration`
+    // rounds a 1.01 s slice up to 2 s (and halves the rate). The slice is first request to last reply.
+    const started = performance.now();
+    let lastReply = started;
     const latencies: number[] = [];
     const refused: Record<string, number> = {};
     const instance = autocannon(options, (error, result) => {
@@ -84,12 +91,13 @@ function runAutocannon(options: autocannon.Options, maxSeconds?: number): Promis
         resolve({
           ok: result['2xx'],
           other: result.non2xx + result.errors + result.timeouts,
-          seconds: result.duration,
+          seconds: (lastReply - started) / 1000,
           latencies,
           refused,
         });
     });
     instance.on('response', (_client, status, _bytes, responseTime) => {
+      lastReply = performance.now();
       latencies.push(responseTime);
       if (status < 200 || status > 299) refused[status] = (refused[status] ?? 0) + 1;
     });
@@ -273,6 +281,14 @@ async function benchEngine(engine: string, databaseUrl: string): Promise<Row[]> 
     const noopRun = (clients: number, seconds: number) =>
       runAutocannon({ url: `${base}/bench/noop`, connections: clients, duration: seconds });
 
+    const bareRun = (clients: number, seconds: number) =>
+      runAutocannon({
+        url: `${base}/bench/bare-write`,
+        method: 'POST',
+        connections: clients,
+        duration: seconds,
+      });
+
     const counters = async () =>
       (await (await fetch(`${base}/bench/counters`)).json()) as {
         commits: number;
@@ -290,6 +306,7 @@ async function benchEngine(engine: string, databaseUrl: string): Promise<Row[]> 
       // run hits both sides of the ratio alike.
       const answerSlices: Slice[] = [];
       const noopSlices: Slice[] = [];
+      const bareSlices: Slice[] = [];
       let answerCpu = 0;
       let noopCpu = 0;
       let commits = 0;
@@ -302,6 +319,7 @@ async function benchEngine(engine: string, databaseUrl: string): Promise<Row[]> 
         const middle = await counters();
         noopSlices.push(await noopRun(clients, noopSeconds / slices));
         const after = await counters();
+        bareSlices.push(await bareRun(clients, noopSeconds / slices));
         answerCpu += middle.cpuMicroseconds - before.cpuMicroseconds;
         noopCpu += after.cpuMicroseconds - middle.cpuMicroseconds;
         commits += middle.commits - before.commits;
@@ -309,6 +327,7 @@ async function benchEngine(engine: string, databaseUrl: string): Promise<Row[]> 
       }
       const answers = combine(answerSlices);
       const noop = combine(noopSlices);
+      const bare = combine(bareSlices);
       acknowledgedTotal += answers.ok;
       if (answers.other > 0)
         console.log(
@@ -327,6 +346,7 @@ async function benchEngine(engine: string, databaseUrl: string): Promise<Row[]> 
         noopPerSecond: noop.ok / (noop.seconds || 1),
         noopP99: quantile(noop.latencies, 0.99),
         cpuPerNoop: noopCpu / Math.max(1, noop.ok + noop.other),
+        barePerSecond: bare.ok / (bare.seconds || 1),
       });
     }
     const stored = await sql<{ n: number }>`select count(*) as n from responses`.execute(reader);
@@ -363,18 +383,20 @@ try {
     }
   }
   console.log(
-    `\nper level: ≤ ${answersPerRun} answers in ≤ ${secondsPerRun} s and ${noopSeconds} s of no-op, alternating in ${slices} slices; ` +
+    `\nper level: ≤ ${answersPerRun} answers in ≤ ${secondsPerRun} s, ${noopSeconds} s of no-op and ${noopSeconds} s of bare writes, alternating in ${slices} slices; ` +
       'server: own process, LOG_LEVEL=warn, SQLITE_SYNC=full; CPU = server process user+system time per request',
   );
   console.log(
-    '| engine | clients | answers/s | p50 ms | p99 ms | non-2xx | mean batch | CPU µs/answer | no-op/s | no-op p99 ms | CPU µs/no-op | answers/s ÷ no-op/s | CPU no-op ÷ answer |',
+    '| engine | clients | answers/s | p50 ms | p99 ms | non-2xx | mean batch | CPU µs/answer | no-op/s | no-op p99 ms | CPU µs/no-op | answers/s ÷ no-op/s | CPU no-op ÷ answer | bare writes/s | bare ÷ no-op | answers ÷ bare |',
   );
-  console.log('|---|---|---|---|---|---|---|---|---|---|---|---|---|');
+  console.log('|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|---|');
   for (const row of rows) {
     const ratio = row.noopPerSecond > 0 ? (row.perSecond / row.noopPerSecond).toFixed(3) : '-';
     const cpuRatio = row.cpuPerAnswer > 0 ? (row.cpuPerNoop / row.cpuPerAnswer).toFixed(3) : '-';
+    const bareRatio = row.noopPerSecond > 0 ? (row.barePerSecond / row.noopPerSecond).toFixed(3) : '-';
+    const answersToBare = row.barePerSecond > 0 ? (row.perSecond / row.barePerSecond).toFixed(3) : '-';
     console.log(
-      `| ${row.engine} | ${row.clients} | ${row.perSecond.toFixed(0)} | ${row.p50} | ${row.p99} | ${row.non2xx} | ${row.meanBatch.toFixed(1)} | ${row.cpuPerAnswer.toFixed(0)} | ${row.noopPerSecond.toFixed(0)} | ${row.noopP99} | ${row.cpuPerNoop.toFixed(0)} | ${ratio} | ${cpuRatio} |`,
+      `| ${row.engine} | ${row.clients} | ${row.perSecond.toFixed(0)} | ${row.p50} | ${row.p99} | ${row.non2xx} | ${row.meanBatch.toFixed(1)} | ${row.cpuPerAnswer.toFixed(0)} | ${row.noopPerSecond.toFixed(0)} | ${row.noopP99} | ${row.cpuPerNoop.toFixed(0)} | ${ratio} | ${cpuRatio} | ${row.barePerSecond.toFixed(0)} | ${bareRatio} | ${answersToBare} |`,
     );
   }
 } finally {

@@ -12,15 +12,21 @@ export function bankChartRenderer(bank: Pick<ItemBank, 'maps'>): ChartRenderer {
 }
 
 /**
- * A permutation of 0..n-1 fixed by a seed (Fisher–Yates driven by SHA-256 of seed and step), so one
- * attempt sees the same option order on every reload and different attempts see different orders.
+ * A permutation of 0..n-1 fixed by a seed (Fisher–Yates driven by SHA-256 of seed and block), so
+ * one attempt sees the same option order on every reload and different attempts see different
+ * orders. One digest gives eight 32-bit words, so an item of up to nine options costs one hash
+ * (the modulo bias is below n / 2^32).
  * @example seededOrder(4, 'abc') // the same permutation of [0, 1, 2, 3] on every call
  */
 export function seededOrder(n: number, seed: string): number[] {
   const order = Array.from({ length: n }, (_, i) => i);
-  for (let i = n - 1; i > 0; i--) {
-    const word = createHash('sha256').update(`${seed}:${i}`).digest().readUInt32BE(0);
-    const j = word % (i + 1);
+  let words: Buffer | undefined;
+  for (let i = n - 1, step = 0; i > 0; i--, step++) {
+    if (step % 8 === 0)
+      words = createHash('sha256')
+        .update(`${seed}:${step / 8}`)
+        .digest();
+    const j = (words as Buffer).readUInt32BE((step % 8) * 4) % (i + 1);
     [order[i], order[j]] = [order[j]!, order[i]!];
   }
   return order;

