@@ -2,6 +2,7 @@ import type { ChartRenderer } from '../bank/chart-renderer.js';
 import type { ItemFeatures } from '../bank/derive-features.js';
 import type { BankItem, ItemBank } from '../bank/load-bank.js';
 import { toRespondentView } from '../bank/respondent-view.js';
+import { documentHead } from './document-head.js';
 import { html, raw, type SafeHtml } from './html.js';
 
 /** Gallery filters (validated by the route); absent means all. */
@@ -42,15 +43,7 @@ export function renderBankGallery(bank: ItemBank, filter: GalleryFilter, render:
 ${values.map((v) => html`<option value="${v.value}"${v.value === chosen ? raw(' selected') : ''}>${v.label}</option>`)}
 </select></label>`;
   const asOptions = (values: readonly string[]) => values.map((value) => ({ value, label: value }));
-  return html`<!doctype html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<meta name="referrer" content="no-referrer">
-<title>Item bank: ${items.length} of ${bank.items.length} items</title>
-<link rel="stylesheet" href="/bank/gallery.css">
-</head>
+  return html`${documentHead({ title: `Item bank: ${items.length} of ${bank.items.length} items`, stylesheets: ['/bank/gallery.css'] })}
 <body>
 <header>
 <h1>Item bank</h1>

@@ -1,3 +1,4 @@
+import { documentHead } from './document-head.js';
 import { html } from './html.js';
 
 /**
@@ -7,15 +8,7 @@ import { html } from './html.js';
  */
 export function renderErrorPage(options: { status: number; message: string }): string {
   const heading = options.status === 404 ? 'Not found' : 'This page cannot be shown';
-  return html`<!doctype html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<meta name="referrer" content="no-referrer">
-<title>${heading} · plotgauge</title>
-<link rel="stylesheet" href="/report-assets/report.css">
-</head>
+  return html`${documentHead({ title: `${heading} · plotgauge`, stylesheets: ['/report-assets/report.css'] })}
 <body>
 <main class="sign-in">
 <h1>${heading}</h1>

@@ -1,3 +1,4 @@
+import { documentHead } from './document-head.js';
 import { html, type SafeHtml } from './html.js';
 import type { Strings } from './strings/en.js';
 
@@ -19,15 +20,7 @@ export interface DocumentParts {
  */
 export function renderDocument(parts: DocumentParts): string {
   const { strings } = parts;
-  return html`<!doctype html>
-<html lang="${strings.lang}">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<meta name="referrer" content="no-referrer">
-<title>${parts.title}</title>
-<link rel="stylesheet" href="/assets/respondent.css">
-</head>
+  return html`${documentHead({ lang: strings.lang, title: parts.title, stylesheets: ['/assets/respondent.css'] })}
 <body>
 <main id="main" data-join-code="${parts.joinCode ?? ''}">
 <p id="status" class="status" role="status" aria-live="polite" hidden></p>

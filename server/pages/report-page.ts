@@ -6,6 +6,7 @@ import { renderProfileGrid } from '../reports/pictures/profile-grid.js';
 import type { ReportRow } from '../reports/report-rows.js';
 import { reportRows, rowKey } from '../reports/report-rows.js';
 import type { Interval, Report, ReportAudience } from '../reports/report-types.js';
+import { documentHead } from './document-head.js';
 import { renderFairnessSection } from './fairness-section-html.js';
 import { html, raw, type SafeHtml } from './html.js';
 import { renderPilotSection } from './pilot-section-html.js';
@@ -137,15 +138,7 @@ export interface ReportLinks {
  */
 export function renderReportPage(report: Report, links: ReportLinks): string {
   const rows = new Map(reportRows(report).map((r) => [rowKey(r), r]));
-  return html`<!doctype html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<meta name="referrer" content="no-referrer">
-<title>Readability report: ${report.study.title}</title>
-<link rel="stylesheet" href="/report-assets/report.css">
-</head>
+  return html`${documentHead({ title: `Readability report: ${report.study.title}`, stylesheets: ['/report-assets/report.css'] })}
 <body>
 <header>
 <p class="kicker">Readability report</p>

@@ -1,3 +1,4 @@
+import { documentHead } from './document-head.js';
 import { html } from './html.js';
 
 /**
@@ -7,15 +8,7 @@ import { html } from './html.js';
  * server or write to its logs, into the form and submits it.
  */
 export function renderSignInPage(options: { next: string; error?: string }): string {
-  return html`<!doctype html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<meta name="referrer" content="no-referrer">
-<title>Sign in · plotgauge</title>
-<link rel="stylesheet" href="/report-assets/report.css">
-</head>
+  return html`${documentHead({ title: 'Sign in · plotgauge', stylesheets: ['/report-assets/report.css'] })}
 <body>
 <main class="sign-in">
 <h1>Sign in to plotgauge</h1>

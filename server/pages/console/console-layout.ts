@@ -1,3 +1,4 @@
+import { documentHead } from '../document-head.js';
 import { html, type SafeHtml } from '../html.js';
 
 /** Which part of the console a page belongs to (marks its link in the header as the current page). */
@@ -40,16 +41,7 @@ export function renderConsolePage(parts: ConsolePageParts): string {
     (s) =>
       html`<li><a class="nav-link" href="${s.href}"${s.key === parts.active ? html` aria-current="page"` : ''}>${s.label}</a></li>`,
   );
-  return html`<!doctype html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<meta name="referrer" content="no-referrer">
-<title>${parts.title} · plotgauge console</title>
-<link rel="stylesheet" href="/report-assets/report.css">
-<link rel="stylesheet" href="/console-assets/console.css">
-</head>
+  return html`${documentHead({ title: `${parts.title} · plotgauge console`, stylesheets: ['/report-assets/report.css', '/console-assets/console.css'] })}
 <body class="console" data-csrf="${parts.csrfToken}">
 <a class="skip-link" href="#main">Skip to content</a>
 <header class="console-header">
