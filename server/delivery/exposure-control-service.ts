@@ -32,6 +32,7 @@ import {
   listStudyExposureControls,
 } from '../storage/exposure-control-repository.js';
 import { findStudyById } from '../storage/study-repository.js';
+import { runInWorker } from '../workers/run-in-worker.js';
 import type { AdaptiveBank } from './adaptive/adaptive-bank.js';
 import { type AdaptiveSettings, stopRulesFor } from './adaptive/adaptive-settings.js';
 import { type SimulationResult, simulateAdaptive } from './adaptive/simulate-adaptive.js';
@@ -58,10 +59,9 @@ export const exposureAudienceMeans = [-1, 0, 1] as const;
 
 /**
  * The API's bounded work: persons per audience and the most tuning rounds, so at most 10
- * simulations of 300 persons. On the 110-item bank (SE target 0.45, 5–30 items) that took 6.2 s on a
- * shared 2-core machine, about 60% of it computing Gauss–Hermite nodes inside each EAP. The
- * server's event loop is busy meanwhile: tune between sessions, or with the command line (which
- * also takes more persons), on a busy server.
+ * simulations of 300 persons (a few seconds on the 110-item bank, SE target 0.45, 5–30 items, on a
+ * 2-core machine; 6.2 s when it was first measured on a busier one). It runs in a worker thread (`runInWorker`), so the server keeps answering
+ * respondents meanwhile; the command line takes more persons.
  */
 export const apiTuningBudget = { personsPerAudience: 100, rounds: 8 } as const;
 
@@ -245,11 +245,12 @@ export async function tuneStudyExposureControl(
   }
   const settings = parseStudySettings(study);
   const delivery = await loadAdaptiveDelivery(db, bank, studyId, settings);
-  const tuned = tuneExposureForBank(
+  // In a worker thread: the simulation takes seconds, and respondents keep answering meanwhile.
+  const tuned = await runInWorker<TunedExposureControl>(import.meta.url, 'tuneExposureForBank', [
     delivery.bank,
     { ...delivery.rules, timeLimitSeconds: undefined },
     { seed: options.seed, target: options.target, ...apiTuningBudget },
-  );
+  ]);
   return db.transaction().execute((trx) =>
     saveExposureControl(
       trx,
