@@ -4,7 +4,8 @@
  * Blind: a queue entry carries the item's prompt and rubric and the answer's text, with the response
  * id as the entry id; never the attempt, cohort, background answers, timing or position. Every rater
  * walks the same order (oldest answer first); an answer leaves a rater's queue once that rater has
- * scored it, and everyone's queue once it has the scores its study asks for (`rubricRaters`, 1 or 2).
+ * scored it, and everyone's queue once it has the scores it needs: its study's `rubricRaters` (1 or
+ * 2), or a third read when two raters gave 0 and 2 (final-rubric-score.ts).
  * When the last score arrives, the final score (see final-rubric-score.ts) is written into the
  * response, so calibration, exports and reports read it like any other score.
  */
@@ -22,7 +23,7 @@ import {
   setFinalScore,
 } from '../storage/rubric-score-repository.js';
 import { findStudyById } from '../storage/study-repository.js';
-import { finalRubricScore } from './final-rubric-score.js';
+import { finalRubricScore, scoresNeeded } from './final-rubric-score.js';
 import { requireStudy } from './study-service.js';
 import { studySettingsSchema } from './study-settings.js';
 
@@ -34,7 +35,7 @@ export interface ScoringQueueEntry {
   prompt: string;
   rubric: { score: number; description: string }[];
   text: string;
-  /** Scores the answer has (from other raters), and how many the study asks for. */
+  /** Scores the answer has (from other raters), and how many it needs (3 for a third read). */
   scoresGiven: number;
   scoresNeeded: number;
 }
@@ -53,6 +54,7 @@ export interface RubricScoreResult {
   entryId: string;
   score: number;
   scoresGiven: number;
+  /** Scores the answer needs: the study's raters, or 3 once two raters gave 0 and 2. */
   scoresNeeded: number;
   /** The answer's final score once it has every score it needs, else null. */
   finalScore: number | null;
@@ -88,13 +90,14 @@ export async function scoringQueue(
   const { answers, remaining } = await listAnswersToScore(db, studyId, rater, raters, limit);
   const entries: ScoringQueueEntry[] = [];
   for (const answer of answers) {
+    const scores = (await listRubricScores(db, answer.responseId)).map((s) => s.score);
     entries.push({
       entryId: answer.responseId,
       itemId: answer.itemId,
       ...rubricOf(bank, answer.itemId),
       text: answer.text,
-      scoresGiven: (await listRubricScores(db, answer.responseId)).length,
-      scoresNeeded: raters,
+      scoresGiven: scores.length,
+      scoresNeeded: scoresNeeded(raters, scores),
     });
   }
   return { studyId, rater, scoresNeeded: raters, remaining, entries };
@@ -130,11 +133,15 @@ export async function scoreRubricAnswer(
       `You (${rater}) already scored this answer ${mine.score}; the first score stands.`,
       { field: 'params.entryId', rater },
     );
-  if (scores.length >= raters)
+  const needed = scoresNeeded(
+    raters,
+    scores.map((s) => s.score),
+  );
+  if (scores.length >= needed)
     throw new AppError(
       'RUBRIC_SCORES_COMPLETE',
-      `This answer already has the ${raters === 1 ? 'one score' : `${raters} scores`} its study asks for.`,
-      { field: 'params.entryId', scoresNeeded: raters },
+      `This answer already has the ${needed === 1 ? 'one score' : `${needed} scores`} it needs.`,
+      { field: 'params.entryId', scoresNeeded: needed },
     );
   const scoredAt = nowIso();
   try {
@@ -148,7 +155,8 @@ export async function scoreRubricAnswer(
     throw error;
   }
   const given = [...scores.map((s) => s.score), score];
-  const finalScore = given.length >= raters ? finalRubricScore(given) : null;
+  const neededNow = scoresNeeded(raters, given);
+  const finalScore = given.length >= neededNow ? finalRubricScore(given) : null;
   if (finalScore !== null) await setFinalScore(db, entryId, finalScore);
   await insertAuditEntry(db, {
     id: randomUUID(),
@@ -158,5 +166,5 @@ export async function scoreRubricAnswer(
     subject: entryId,
     details: { itemId: answer.itemId, score, final: finalScore },
   });
-  return { entryId, score, scoresGiven: given.length, scoresNeeded: raters, finalScore };
+  return { entryId, score, scoresGiven: given.length, scoresNeeded: neededNow, finalScore };
 }

@@ -97,6 +97,6 @@ export function rubricAgreementSection(
       "Short-text answers are scored 0, 1 or 2 against each item's rubric. Where the study asks for two raters, agreement is Cohen's " +
       'quadratic-weighted kappa (Cohen 1968) over the answers both scored, with a 95% interval from the large-sample SE of Fleiss, Cohen & Everitt (1969); ' +
       'kappa is not given for fewer than two double-scored answers or when every answer got the same score. An answer counts with the mean of its ' +
-      'scores rounded down. Rubric items are calibrated with the partial credit model (Masters 1982); their steps are shown in logits.',
+      'two scores rounded down; when they were 0 and 2, a third rater decides (the median of the three), and kappa uses the first two. Rubric items are calibrated with the partial credit model (Masters 1982); their steps are shown in logits.',
   };
 }

@@ -81,8 +81,9 @@ function rowToAnswer(row: AnswerRow): RubricAnswer {
 }
 
 /**
- * The short-text answers of a study that `rater` has not scored and that have fewer than `raters`
- * scores, oldest first (received time, then response id): every rater walks the same order.
+ * The short-text answers of a study that `rater` has not scored, that have no final score yet, and
+ * fewer than `raters` scores (with two raters: fewer than three, since an answer without a final
+ * score after two is a third read, its first two scores being 0 and 2), oldest first (received time, then response id): every rater walks the same order.
  * "I don't know" answers are scored 0 on arrival and never queued.
  */
 export async function listAnswersToScore(
@@ -112,7 +113,9 @@ export async function listAnswersToScore(
           .select((inner) => inner.fn.countAll<number>().as('n'))
           .whereRef('rubric_scores.response_id', '=', 'responses.id'),
       '<',
-      raters,
+      // With two raters an answer still without a final score after two scores is a third read
+      // (0 and 2: final-rubric-score.ts), so it waits for a third; with one rater, for one.
+      raters === 2 ? 3 : raters,
     );
   const rows = await base.orderBy('responses.received_at').orderBy('responses.id').execute();
   return { answers: rows.slice(0, limit).map(rowToAnswer), remaining: rows.length };

@@ -41,7 +41,7 @@ ${input.problem === undefined ? '' : html`<p class="field-error" role="alert">${
   const entry = queue.entries[0];
   const needs =
     queue.scoresNeeded === 2
-      ? 'This study asks for two scores per answer, from two different people.'
+      ? 'This study asks for two scores per answer, from two different people; when they are 0 and 2, a third person decides.'
       : 'This study asks for one score per answer.';
   if (entry === undefined)
     return html`${head}${picker}
@@ -52,6 +52,7 @@ ${input.problem === undefined ? '' : html`<p class="field-error" role="alert">${
 <p>${needs} ${queue.remaining === 1 ? 'This is the last answer waiting for you.' : `${queue.remaining} answers wait for your score; this is the oldest.`}</p>
 <section class="scoring-entry" aria-labelledby="scoring-question">
 <h3 id="scoring-question">Question (${entry.itemId})</h3>
+${entry.scoresNeeded === 3 ? html`<p class="notice">Third read: two people scored this answer 0 and 2. Your score decides.</p>` : ''}
 ${input.chartSvg === undefined ? '' : html`<figure class="bank-chart scoring-chart">${raw(input.chartSvg)}</figure>`}
 <p>${entry.prompt}</p>
 <h3>Answer</h3>
