@@ -74,6 +74,8 @@ export const routeAccess: Readonly<Record<string, Access>> = {
   'GET /console/studies/:studyId/pilots': 'admin',
   'GET /console/studies/:studyId/pilots/new': 'admin',
   'POST /console/studies/:studyId/pilots': 'admin',
+  'GET /console/studies/:studyId/pilots/:pilotId/retire': 'admin',
+  'POST /console/studies/:studyId/pilots/:pilotId/retire': 'admin',
   'GET /console/studies/:studyId/calibrate': 'admin',
   'POST /console/studies/:studyId/calibrate': 'admin',
   // Console scoring queue (server/http/console-scoring-routes.ts): admin, like the scoring API.
@@ -108,6 +110,8 @@ export const consolePages: ReadonlySet<string> = new Set([
   'GET /console/studies/:studyId/pilots',
   'GET /console/studies/:studyId/pilots/new',
   'POST /console/studies/:studyId/pilots',
+  'GET /console/studies/:studyId/pilots/:pilotId/retire',
+  'POST /console/studies/:studyId/pilots/:pilotId/retire',
   'GET /console/studies/:studyId/calibrate',
   'POST /console/studies/:studyId/calibrate',
   'GET /console/scoring',

@@ -12,7 +12,7 @@ import {
   effectiveItemStatus,
   itemStatusChangeInputSchema,
 } from '../delivery/item-status-service.js';
-import { addPilot, pilotInputSchema } from '../delivery/pilots/pilot-service.js';
+import { addPilot, pilotInputSchema, retirePilot } from '../delivery/pilots/pilot-service.js';
 import { requireStudy } from '../delivery/study-service.js';
 import { AppError } from '../errors.js';
 import { bankBrowserMain } from '../pages/console/bank-browser-page.js';
@@ -71,6 +71,7 @@ const bankQuery = z.strictObject({
   status: z.preprocess(blankAsAbsent, z.enum(['active', 'retired', 'draft']).optional()),
 });
 const itemParams = z.object({ itemId: z.string().min(1).max(200) });
+const pilotParams = studyParams.extend({ pilotId: z.string().min(1).max(100) });
 const formBody = z.object({ csrf: z.string().max(200).optional(), reason: z.string().max(2000).optional() });
 
 /** HTML pages answer with the page; refusals of the access check and CSRF check answer JSON. */
@@ -389,7 +390,7 @@ export const consoleBankRoutes: FastifyPluginAsyncZod<ConsoleBankRoutesOptions> 
         summary: 'Form to add a pilot chart to a study (console)',
         tags: ['console'],
         params: studyParams,
-        querystring: z.strictObject({ added: z.literal('1').optional() }),
+        querystring: z.strictObject({ added: z.literal('1').optional(), retired: z.literal('1').optional() }),
         response: pageAnswers,
       },
     },
@@ -397,7 +398,9 @@ export const consoleBankRoutes: FastifyPluginAsyncZod<ConsoleBankRoutesOptions> 
       const notice =
         request.query.added === '1'
           ? 'Pilot chart added. It is listed below; add another or go back to the study.'
-          : undefined;
+          : request.query.retired === '1'
+            ? 'New attempts no longer get that pilot chart. Its answers so far stay in the report.'
+            : undefined;
       const page = await pilotPage(request, request.params.studyId, {
         values: emptyPilotForm,
         problems: [],
@@ -512,6 +515,44 @@ export const consoleBankRoutes: FastifyPluginAsyncZod<ConsoleBankRoutesOptions> 
         .code(303)
         .header('cache-control', 'no-store')
         .redirect(`/console/studies/${encodeURIComponent(studyId)}/pilots/new?added=1`, 303);
+    },
+  );
+
+  app.get(
+    '/console/studies/:studyId/pilots/:pilotId/retire',
+    {
+      schema: {
+        summary: 'Console: 303 to the pilot page (the next page of a signed-out form post)',
+        tags: ['console'],
+        params: pilotParams,
+        response: { 303: z.null(), 400: errorBodySchema, 401: errorBodySchema, 403: errorBodySchema },
+      },
+    },
+    async (request, reply) =>
+      reply
+        .code(303)
+        .redirect(`/console/studies/${encodeURIComponent(request.params.studyId)}/pilots/new`, 303),
+  );
+
+  app.post(
+    '/console/studies/:studyId/pilots/:pilotId/retire',
+    {
+      schema: {
+        summary: 'Stop giving a pilot chart to new attempts (console form)',
+        tags: ['console'],
+        params: pilotParams,
+        body: formBody,
+        response: pageAnswers,
+      },
+    },
+    async (request, reply) => {
+      assertCsrf(request, request.body.csrf);
+      const { studyId, pilotId } = request.params;
+      await db.transaction().execute((trx) => retirePilot(trx, studyId, pilotId, actorOf(request)));
+      return reply
+        .code(303)
+        .header('cache-control', 'no-store')
+        .redirect(`/console/studies/${encodeURIComponent(studyId)}/pilots/new?retired=1`, 303);
     },
   );
 

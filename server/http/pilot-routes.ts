@@ -8,6 +8,7 @@ import {
   pilotInputSchema,
   pilotSummary,
   requirePilotOfStudy,
+  retirePilot,
 } from '../delivery/pilots/pilot-service.js';
 import { requireStudy } from '../delivery/study-service.js';
 import { findPilotById, listPilots } from '../storage/pilot-repository.js';
@@ -82,6 +83,22 @@ export const pilotRoutes: FastifyPluginAsyncZod<{ bank?: Pick<ItemBank, 'maps'> 
       await requireStudy(db, request.params.studyId);
       return (await listPilots(db, request.params.studyId)).map(pilotSummary);
     },
+  );
+
+  app.post(
+    '/api/admin/studies/:studyId/pilots/:pilotId/retire',
+    {
+      schema: {
+        summary: 'Stop giving a pilot chart to new attempts (its answers and report stay)',
+        tags: ['admin'],
+        params: pilotParams,
+        response: { 200: pilotSchema, ...errors },
+      },
+    },
+    async (request) =>
+      db
+        .transaction()
+        .execute((trx) => retirePilot(trx, request.params.studyId, request.params.pilotId, actorOf(request))),
   );
 
   app.get(

@@ -57,6 +57,11 @@ export async function findPilotById(db: DbHandle, id: string): Promise<PilotReco
   return row ? rowToRecord(row) : undefined;
 }
 
+/** Sets a pilot's status (`retired`: no new attempt is given it). */
+export async function setPilotStatus(db: DbHandle, id: string, status: PilotRecord['status']): Promise<void> {
+  await db.updateTable('pilot_items').set({ status }).where('id', '=', id).execute();
+}
+
 /** A study's pilots, oldest first. */
 export async function listPilots(db: DbHandle, studyId: string): Promise<PilotRecord[]> {
   const rows = await db

@@ -67,6 +67,80 @@ for (const engine of testEngines()) {
     const adaptiveStudy = (settings: Record<string, unknown>) =>
       calibratedAdaptiveStudy(app, database, 10, { title: 'Ferry steps', design: 'adaptive', ...settings });
 
+    it('a retired pilot is given to no new attempt; one that joined before still shows it, and its answers stay', async () => {
+      const study = await studyWithCohort(app, { maxItems: 4 });
+      const pilotId = await addPilot(study.studyId);
+      // Joined before the retirement: the pilot is in its form.
+      const early = await request(app.server).post('/api/join').send({ code: study.joinCode });
+      expect(early.status).toBe(201);
+      expect((await storedAttempt(database, early.body.token)).form.pilots).toHaveLength(1);
+      const finished = await runAttempt(study.joinCode, 0.2, 'north');
+      expect(finished.screens.filter((s) => s.pilot)).toHaveLength(1);
+
+      const retired = await request(app.server)
+        .post(`/api/admin/studies/${study.studyId}/pilots/${pilotId}/retire`)
+        .set(admin);
+      expect(retired.status, JSON.stringify(retired.body)).toBe(200);
+      expect(retired.body).toMatchObject({ id: pilotId, status: 'retired' });
+      // Again: the same answer, one audit entry only.
+      const again = await request(app.server)
+        .post(`/api/admin/studies/${study.studyId}/pilots/${pilotId}/retire`)
+        .set(admin);
+      expect(again.status).toBe(200);
+      const audits = await database.db
+        .selectFrom('audit_log')
+        .selectAll()
+        .where('action', '=', 'pilot.retire')
+        .where('subject', '=', study.studyId)
+        .execute();
+      expect(audits).toHaveLength(1);
+
+      for (let i = 0; i < 5; i++) {
+        const { screens, state } = await runAttempt(study.joinCode, 0.2, 'north');
+        expect(state.step).toBe('finished');
+        expect(screens.some((s) => s.pilot)).toBe(false);
+      }
+      // The attempt that joined before finishes with the pilot in its place.
+      let state = (
+        await request(app.server)
+          .post('/api/attempt/consent')
+          .set(bearer(early.body.token))
+          .send({ agree: true })
+      ).body;
+      let sawPilot = false;
+      while (state.step === 'item') {
+        const pilot = state.item.chartImage !== undefined;
+        sawPilot ||= pilot;
+        const reply = await request(app.server)
+          .post('/api/attempt/responses')
+          .set(bearer(early.body.token))
+          .send({
+            itemId: state.item.itemId,
+            answer: { kind: 'choice', optionIds: [pilot ? 'south' : 'a'] },
+          });
+        expect(reply.status, JSON.stringify(reply.body)).toBe(201);
+        state = reply.body.attempt;
+      }
+      expect(sawPilot).toBe(true);
+      const answers = await database.db
+        .selectFrom('pilot_responses')
+        .select('id')
+        .where('pilot_id', '=', pilotId)
+        .execute();
+      expect(answers).toHaveLength(2);
+
+      const unknown = await request(app.server)
+        .post(`/api/admin/studies/${study.studyId}/pilots/no-such-pilot/retire`)
+        .set(admin);
+      expect(unknown.status).toBe(404);
+      expect(unknown.body.error.code).toBe('PILOT_NOT_FOUND');
+      const other = await studyWithCohort(app, { maxItems: 4 });
+      const elsewhere = await request(app.server)
+        .post(`/api/admin/studies/${other.studyId}/pilots/${pilotId}/retire`)
+        .set(admin);
+      expect(elsewhere.status).toBe(404);
+    });
+
     it('fixed form: the pilot is shown at its drawn place, looks like any chart, and is stored apart', async () => {
       const study = await studyWithCohort(app, { maxItems: 6 });
       const pilotId = await addPilot(study.studyId);

@@ -337,6 +337,29 @@ for (const engine of testEngines()) {
       const after = await request(app.server).get(added.headers.location!).set('Cookie', adminCookie);
       expect(after.text).toContain('Pilot chart added.');
       expect(after.text).toContain(`/api/admin/studies/${studyId}/pilots/${stored[0]!.id}/image`);
+
+      // Stop giving it to new attempts: a form per active pilot, CSRF-checked.
+      const retireAction = `/console/studies/${studyId}/pilots/${stored[0]!.id}/retire`;
+      expect(after.text).toContain(`action="${retireAction}"`);
+      const forgedRetire = await request(app.server)
+        .post(retireAction)
+        .set('Cookie', adminCookie)
+        .type('form')
+        .send({ csrf: 'forged' });
+      expect(forgedRetire.status).toBe(403);
+      expect((await pilots())[0]!.status).toBe('active');
+      const retired = await request(app.server)
+        .post(retireAction)
+        .set('Cookie', adminCookie)
+        .type('form')
+        .send({ csrf: csrfOf(after.text) });
+      expect(retired.status).toBe(303);
+      expect(retired.headers.location).toBe(`/console/studies/${studyId}/pilots/new?retired=1`);
+      expect((await pilots())[0]!.status).toBe('retired');
+      const listed = await request(app.server).get(retired.headers.location!).set('Cookie', adminCookie);
+      expect(listed.text).toContain('New attempts no longer get that pilot chart.');
+      expect(listed.text).toContain('no longer given to new attempts');
+      expect(listed.text).not.toContain(`action="${retireAction}"`);
     });
 
     it('calibrates from the console, or says why it cannot', async () => {

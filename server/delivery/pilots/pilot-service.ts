@@ -10,7 +10,12 @@ import { chartSpecSchema, type StoredMap } from '../../charts/chart-spec.js';
 import { AppError } from '../../errors.js';
 import { insertAuditEntry } from '../../storage/audit-repository.js';
 import { type DbHandle, nowIso } from '../../storage/db-handle.js';
-import { insertPilot, type PilotRecord } from '../../storage/pilot-repository.js';
+import {
+  findPilotById,
+  insertPilot,
+  type PilotRecord,
+  setPilotStatus,
+} from '../../storage/pilot-repository.js';
 import { requireStudy } from '../study-service.js';
 import { renderPilotChart } from './check-pilot-chart.js';
 import { checkPilotImage } from './check-pilot-image.js';
@@ -149,4 +154,33 @@ export function pilotImageHeaders(pilot: Pick<PilotRecord, 'mediaType'>): Record
     'x-content-type-options': 'nosniff',
     'cache-control': 'private, max-age=300',
   };
+}
+
+/**
+ * Stops giving a pilot to new attempts (call inside a transaction): its status becomes `retired`,
+ * audited as `pilot.retire` with the pilot id. Attempts that already hold it still show it in its
+ * place (their form is fixed when they join), its answers stay, and the report keeps reporting it.
+ * Retiring a retired pilot changes nothing and is not audited again.
+ *
+ * @throws AppError STUDY_NOT_FOUND; PILOT_NOT_FOUND (also for a pilot of another study).
+ */
+export async function retirePilot(
+  db: DbHandle,
+  studyId: string,
+  pilotId: string,
+  actor: string,
+): Promise<PilotSummary> {
+  await requireStudy(db, studyId);
+  const pilot = requirePilotOfStudy(await findPilotById(db, pilotId), studyId);
+  if (pilot.status === 'retired') return pilotSummary(pilot);
+  await setPilotStatus(db, pilot.id, 'retired');
+  await insertAuditEntry(db, {
+    id: randomUUID(),
+    at: nowIso(),
+    actor,
+    action: 'pilot.retire',
+    subject: studyId,
+    details: { pilotId: pilot.id },
+  });
+  return pilotSummary({ ...pilot, status: 'retired' });
 }

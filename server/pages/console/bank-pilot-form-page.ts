@@ -40,7 +40,7 @@ export interface PilotFormInput {
   problems: readonly PilotFormProblem[];
   /** The study's pilots so far, newest last. */
   pilots: readonly { id: string; prompt: string; alt: string; minResponses: number; status: string }[];
-  /** A notice after a pilot was added. */
+  /** A notice after a pilot was added or retired. */
   notice?: string | undefined;
 }
 
@@ -134,8 +134,16 @@ ${
     : html`<ul class="bank-pilots">${input.pilots.map(
         (p) => html`<li><figure class="bank-pilot">
 <img src="/api/admin/studies/${encodeURIComponent(input.studyId)}/pilots/${encodeURIComponent(p.id)}/image" alt="${p.alt}">
-<figcaption>${p.prompt} <span class="bank-pilot-meta">(${p.status}; calibrated after ${p.minResponses} answers)</span></figcaption>
-</figure></li>`,
+<figcaption>${p.prompt} <span class="bank-pilot-meta">(${p.status === 'retired' ? 'no longer given to new attempts' : 'given to new attempts'}; calibrated after ${p.minResponses} answers)</span></figcaption>
+</figure>
+${
+  p.status === 'retired'
+    ? ''
+    : html`<form method="post" action="/console/studies/${encodeURIComponent(input.studyId)}/pilots/${encodeURIComponent(p.id)}/retire">
+<input type="hidden" name="csrf" value="${input.csrfToken}">
+<button type="submit" class="secondary">Stop giving this chart to new attempts</button>
+</form>`
+}</li>`,
       )}</ul>`
 }
 </section>`;
