@@ -317,7 +317,7 @@ describe.runIf(browserAvailable())('a team day in the console (768 px)', { timeo
 
     const analyst = await createAccessToken(database.db, 'analyst', 'volunteer tablet');
     const reader = await newPage(tablet);
-    // Filtered: axe over all ~110 charts of the whole bank takes over a minute.
+    // Filtered (the whole bank is checked in bank-all-charts.test.ts).
     await reader.page.goto(`${base}/sign-in?next=%2Fconsole%2Fbank%3Fscenario%3Dtown`);
     await reader.page.getByLabel('Team token').fill(analyst.token);
     await reader.page.getByRole('button', { name: 'Sign in' }).click();
