@@ -1,5 +1,6 @@
 import { parseStudySettings } from '../delivery/attempt-service.js';
 import type { DeliveryBank } from '../delivery/delivery-bank.js';
+import { studyExposureControls } from '../delivery/exposure-control-service.js';
 import { selectItemPool } from '../delivery/select-item-pool.js';
 import { requireStudy } from '../delivery/study-service.js';
 import type { DbHandle } from '../storage/db-handle.js';
@@ -30,13 +31,16 @@ export async function readStudyProgress(
     settings.pool,
     await listRetiredItemIds(db),
   );
-  const [cohorts, attemptsWithAnswers, answersByItem, answerTimes, pilots] = await Promise.all([
+  const [cohorts, attemptsWithAnswers, answersByItem, answerTimes, pilots, exposure] = await Promise.all([
     countAttemptsByCohort(db, studyId),
     countAttemptsWithAnswers(db, studyId),
     countAnswersByItem(db, studyId),
     listAnswerTimes(db, studyId),
     countPilotAnswers(db, studyId),
+    settings.design === 'adaptive' ? studyExposureControls(db, studyId) : undefined,
   ]);
+  // An adaptive study's tuned exposure control (the one new attempts start with) sets the limit.
+  const inUse = exposure?.controls.find((control) => control.id === exposure.inUse);
   return composeStudyProgress({
     study: { id: record.id, title: record.title, design: settings.design, status: record.status },
     poolItemIds: pool.itemIds,
@@ -46,5 +50,6 @@ export async function readStudyProgress(
     answerTimes,
     pilots,
     at: nowIso(),
+    tunedExposureLimit: inUse?.targetMaxExposure,
   });
 }

@@ -28,6 +28,11 @@ export interface ProgressInput {
   pilots: readonly PilotAnswerCount[];
   /** When the numbers were read (ISO-8601). */
   at: string;
+  /**
+   * The largest exposure the study's exposure control in use was tuned for, when it has one (else
+   * `exposureLimit` applies).
+   */
+  tunedExposureLimit?: number | undefined;
 }
 
 export interface AttemptCounts {
@@ -78,6 +83,8 @@ export interface StudyProgress {
     /** Whether a limit applies (adaptive designs only). */
     applies: boolean;
     limit: number;
+    /** Where the limit comes from: the study's tuned exposure control, or the default. */
+    limitFrom: 'exposure-control' | 'default';
     warnAt: number;
     minAttempts: number;
     /** Whether there are enough attempts to warn. */
@@ -145,7 +152,8 @@ export function composeStudyProgress(input: ProgressInput): StudyProgress {
   });
 
   const applies = input.study.design === 'adaptive';
-  const warnAt = round(exposureLimit * exposureWarningShare, 3);
+  const limit = input.tunedExposureLimit ?? exposureLimit;
+  const warnAt = round(limit * exposureWarningShare, 3);
   const enoughAttempts = denominator >= exposureMinAttempts;
   const nearing =
     applies && enoughAttempts
@@ -164,7 +172,8 @@ export function composeStudyProgress(input: ProgressInput): StudyProgress {
     items,
     exposure: {
       applies,
-      limit: exposureLimit,
+      limit,
+      limitFrom: input.tunedExposureLimit === undefined ? 'default' : 'exposure-control',
       warnAt,
       minAttempts: exposureMinAttempts,
       enoughAttempts,

@@ -23,7 +23,8 @@ import {
   stepItemCount,
   stepItems,
 } from '../helpers/adaptive-study.js';
-import { admin, deliveryApp, storedState, studyWithCohort } from '../helpers/delivery-fixture.js';
+import { signInToConsole } from '../helpers/console-session.js';
+import { admin, adminToken, deliveryApp, storedState, studyWithCohort } from '../helpers/delivery-fixture.js';
 import { storedAttempt } from '../helpers/stored-attempt.js';
 import { loadTestBank } from '../helpers/test-bank.js';
 import { type TestDatabase, testEngines } from '../helpers/test-databases.js';
@@ -307,6 +308,13 @@ for (const engine of testEngines()) {
       expect(reply.body.outcome).toBe('not-needed');
       expect(new Set(Object.values(reply.body.itemParameters))).toEqual(new Set([1]));
       expect(reply.body.achievedMaxExposure).toBe(reply.body.simulation.randomesqueMaxExposure);
+      // The console's progress page now warns against this control's target, not the default 0.3.
+      const cookie = await signInToConsole(app, adminToken);
+      const progress = await request(app.server)
+        .get(`/console/studies/${study.studyId}/progress.json`)
+        .set('cookie', cookie);
+      expect(progress.status).toBe(200);
+      expect(progress.body.progress.exposure).toMatchObject({ limit: 1, limitFrom: 'exposure-control' });
     });
 
     it('refuses bad input with the field named and stores nothing', async () => {

@@ -95,6 +95,14 @@ describe('composeStudyProgress', () => {
     expect(fixed.exposure.nearing).toEqual([]);
   });
 
+  it("takes the limit from the study's tuned exposure control when it has one", () => {
+    expect(composeStudyProgress(base).exposure).toMatchObject({ limit: 0.3, limitFrom: 'default' });
+    // Tuned for 0.2: warn at 80% of it, 0.16; b-item's 0.225 is now listed too.
+    const tuned = composeStudyProgress({ ...base, tunedExposureLimit: 0.2 });
+    expect(tuned.exposure).toMatchObject({ limit: 0.2, warnAt: 0.16, limitFrom: 'exposure-control' });
+    expect(tuned.exposure.nearing.map((i) => i.itemId)).toEqual(['gone-item', 'a-item', 'b-item']);
+  });
+
   it('says how many answers each pilot still needs, never below zero', () => {
     const p = composeStudyProgress({
       ...base,

@@ -72,8 +72,8 @@ export function exposureSentence(p: StudyProgress): string {
   if (!e.enoughAttempts)
     return `Too few attempts with answers yet (${p.attemptsWithAnswers} of ${e.minAttempts}) to judge exposure.`;
   if (e.nearing.length === 0)
-    return `No item is at or above ${percent(e.warnAt)} of attempts (the limit is ${percent(e.limit)}).`;
-  return `${e.nearing.length === 1 ? '1 item is' : `${e.nearing.length} items are`} at or above ${percent(e.warnAt)} of attempts (the limit is ${percent(e.limit)}):`;
+    return `No item is at or above ${percent(e.warnAt)} of attempts (the limit is ${percent(e.limit)}${limitSource(e)}).`;
+  return `${e.nearing.length === 1 ? '1 item is' : `${e.nearing.length} items are`} at or above ${percent(e.warnAt)} of attempts (the limit is ${percent(e.limit)}${limitSource(e)}):`;
 }
 
 function percent(share: number): string {
@@ -83,4 +83,11 @@ function percent(share: number): string {
 /** `2031-05-04T10:15:00.000Z` → `10:15:00 UTC, 2031-05-04`. */
 export function timeOf(iso: string): string {
   return `${iso.slice(11, 19)} UTC, ${iso.slice(0, 10)}`;
+}
+
+/** Where the exposure limit comes from, in words. */
+function limitSource(e: StudyProgress['exposure']): string {
+  return e.limitFrom === 'exposure-control'
+    ? ', the target of the exposure control new attempts use'
+    : ', the usual target; tune exposure control to set another';
 }
