@@ -410,21 +410,28 @@ export const consoleBankRoutes: FastifyPluginAsyncZod<ConsoleBankRoutesOptions> 
     },
   );
 
-  app.get(
-    '/console/studies/:studyId/pilots',
-    {
-      schema: {
-        summary: 'Console: 303 to the pilot form (the next page of a signed-out form post)',
-        tags: ['console'],
-        params: studyParams,
-        response: { 303: z.null(), 400: errorBodySchema, 401: errorBodySchema, 403: errorBodySchema },
+  // A signed-out form post is sent to /sign-in?next=<its path>; after signing in, these GETs lead
+  // back to the study's pilot page.
+  for (const [url, params] of [
+    ['/console/studies/:studyId/pilots', studyParams],
+    ['/console/studies/:studyId/pilots/:pilotId/retire', pilotParams],
+  ] as const) {
+    app.get(
+      url,
+      {
+        schema: {
+          summary: 'Console: 303 to the pilot page (the next page of a signed-out form post)',
+          tags: ['console'],
+          params,
+          response: { 303: z.null(), 400: errorBodySchema, 401: errorBodySchema, 403: errorBodySchema },
+        },
       },
-    },
-    async (request, reply) =>
-      reply
-        .code(303)
-        .redirect(`/console/studies/${encodeURIComponent(request.params.studyId)}/pilots/new`, 303),
-  );
+      async (request, reply) =>
+        reply
+          .code(303)
+          .redirect(`/console/studies/${encodeURIComponent(request.params.studyId)}/pilots/new`, 303),
+    );
+  }
 
   app.post(
     '/console/studies/:studyId/pilots',
@@ -516,22 +523,6 @@ export const consoleBankRoutes: FastifyPluginAsyncZod<ConsoleBankRoutesOptions> 
         .header('cache-control', 'no-store')
         .redirect(`/console/studies/${encodeURIComponent(studyId)}/pilots/new?added=1`, 303);
     },
-  );
-
-  app.get(
-    '/console/studies/:studyId/pilots/:pilotId/retire',
-    {
-      schema: {
-        summary: 'Console: 303 to the pilot page (the next page of a signed-out form post)',
-        tags: ['console'],
-        params: pilotParams,
-        response: { 303: z.null(), 400: errorBodySchema, 401: errorBodySchema, 403: errorBodySchema },
-      },
-    },
-    async (request, reply) =>
-      reply
-        .code(303)
-        .redirect(`/console/studies/${encodeURIComponent(request.params.studyId)}/pilots/new`, 303),
   );
 
   app.post(
