@@ -21,6 +21,7 @@ import { requireAdaptiveReady } from './adaptive-delivery.js';
 import { parseStudySettings } from './attempt-service.js';
 import type { DeliveryBank } from './delivery-bank.js';
 import { generateJoinCode } from './join-code.js';
+import { resolvePendingRubricAnswers } from './resolve-pending-rubric-answers.js';
 import { selectItemPool } from './select-item-pool.js';
 import { type StudySettings, type StudySettingsInput, studySettingsSchema } from './study-settings.js';
 
@@ -169,10 +170,14 @@ export async function changeStudy(
   actor: Actor,
 ): Promise<Study> {
   const record = await requireStudy(db, studyId);
-  let settings = parseStudySettings(record);
+  const before = parseStudySettings(record);
+  let settings = before;
+  let rubricAnswersResolved = 0;
   if (change.settings !== undefined) {
     settings = validateStudySettings(change.settings, bank);
     await requireAdaptiveReady(db, bank, studyId, settings);
+    if (settings.rubricRaters < before.rubricRaters)
+      rubricAnswersResolved = await resolvePendingRubricAnswers(db, studyId, settings.rubricRaters);
   }
   if (change.title !== undefined) settings = { ...settings, title: change.title };
   const status = change.status ?? record.status;
@@ -187,6 +192,7 @@ export async function changeStudy(
     details: {
       changed: Object.keys(change).filter((k) => change[k as keyof typeof change] !== undefined),
       status,
+      ...(rubricAnswersResolved > 0 ? { rubricAnswersResolved } : {}),
     },
   });
   return toStudy((await findStudyById(db, studyId))!, bank);

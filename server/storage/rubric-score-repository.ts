@@ -169,6 +169,31 @@ export async function setFinalScore(db: DbHandle, responseId: string, score: num
   await db.updateTable('responses').set({ score }).where('id', '=', responseId).execute();
 }
 
+/**
+ * The scores (oldest first) of every answer of a study that has at least one rubric score but no
+ * final score yet, by response id.
+ */
+export async function listPendingRubricScores(db: DbHandle, studyId: string): Promise<Map<string, number[]>> {
+  const rows = await db
+    .selectFrom('rubric_scores')
+    .innerJoin('responses', 'responses.id', 'rubric_scores.response_id')
+    .innerJoin('attempts', 'attempts.id', 'responses.attempt_id')
+    .innerJoin('cohorts', 'cohorts.id', 'attempts.cohort_id')
+    .select(['rubric_scores.response_id as responseId', 'rubric_scores.score as score'])
+    .where('cohorts.study_id', '=', studyId)
+    .where('responses.score', 'is', null)
+    .orderBy('rubric_scores.scored_at')
+    .orderBy('rubric_scores.id')
+    .execute();
+  const pending = new Map<string, number[]>();
+  for (const row of rows) {
+    const scores = pending.get(row.responseId) ?? [];
+    scores.push(Number(row.score));
+    pending.set(row.responseId, scores);
+  }
+  return pending;
+}
+
 /** One answer scored by two raters: the pair as the agreement table reads it. */
 export interface DoubleScore {
   itemId: string;

@@ -23,18 +23,12 @@ for (const engine of testEngines()) {
     let fourth: { Authorization: string };
     let studyId: string;
     /** Response id of each text answer, by its text. */
-    const entryOf = new Map<string, string>();
+    let entryOf: Map<string, string>;
 
-    beforeAll(async () => {
-      database = await engine.open();
-      app = await deliveryApp(database);
-      second = bearer((await createAccessToken(database.db, 'admin', 'second reader')).token);
-      thirdToken = (await createAccessToken(database.db, 'admin', 'third reader')).token;
-      third = bearer(thirdToken);
-      fourth = bearer((await createAccessToken(database.db, 'admin', 'fourth reader')).token);
+    /** A two-rater study whose respondents wrote `texts` (one each); its answers' entry ids by text. */
+    async function studyWithTextAnswers(texts: readonly string[]) {
       const study = await studyWithCohort(app, { title: 'Ferry notes', rubricRaters: 2, maxItems: 5 });
-      studyId = study.studyId;
-      for (const text of ['Market day on the island.', 'Because of the tide table.']) {
+      for (const text of texts) {
         const token = await joinAndConsent(app, study.joinCode);
         let state = (await request(app.server).get('/api/attempt').set(bearer(token))).body;
         while (state.step === 'item') {
@@ -48,9 +42,27 @@ for (const engine of testEngines()) {
           state = reply.body.attempt;
         }
       }
-      const queue = await request(app.server).get(`/api/admin/studies/${studyId}/scoring-queue`).set(admin);
-      for (const entry of queue.body.entries) entryOf.set(entry.text, entry.entryId);
-      expect(entryOf.size).toBe(2);
+      const queue = await request(app.server)
+        .get(`/api/admin/studies/${study.studyId}/scoring-queue`)
+        .set(admin);
+      const entries = new Map<string, string>(
+        queue.body.entries.map((entry: { text: string; entryId: string }) => [entry.text, entry.entryId]),
+      );
+      expect(entries.size).toBe(texts.length);
+      return { studyId: study.studyId, entryOf: entries };
+    }
+
+    beforeAll(async () => {
+      database = await engine.open();
+      app = await deliveryApp(database);
+      second = bearer((await createAccessToken(database.db, 'admin', 'second reader')).token);
+      thirdToken = (await createAccessToken(database.db, 'admin', 'third reader')).token;
+      third = bearer(thirdToken);
+      fourth = bearer((await createAccessToken(database.db, 'admin', 'fourth reader')).token);
+      ({ studyId, entryOf } = await studyWithTextAnswers([
+        'Market day on the island.',
+        'Because of the tide table.',
+      ]));
     }, 60_000);
 
     afterAll(async () => {
@@ -115,6 +127,39 @@ for (const engine of testEngines()) {
       const lateClose = await score(third, close, 2);
       expect(lateClose.status).toBe(409);
       expect(lateClose.body.error.details.scoresNeeded).toBe(2);
+    });
+
+    it('lowering the study to one rater settles the answers waiting for a second or third score', async () => {
+      const texts = ['Ferries rest on Tuesdays.', 'Nobody travels then.', 'The pier is repaired.'];
+      const lowered = await studyWithTextAnswers(texts);
+      const [once, apart, open] = texts.map((text) => lowered.entryOf.get(text)!);
+      expect((await score(admin, once!, 2)).status).toBe(201);
+      expect((await score(admin, apart!, 0)).status).toBe(201);
+      expect((await score(second, apart!, 2)).body).toMatchObject({ scoresNeeded: 3, finalScore: null });
+
+      const study = await request(app.server).get(`/api/admin/studies/${lowered.studyId}`).set(admin);
+      const changed = await request(app.server)
+        .patch(`/api/admin/studies/${lowered.studyId}`)
+        .set(admin)
+        .send({ settings: { ...study.body.settings, rubricRaters: 1 } });
+      expect(changed.status, JSON.stringify(changed.body)).toBe(200);
+      // One score each is what the study asks for now: the first score stands.
+      expect(Number(await storedScore(once!))).toBe(2);
+      expect(Number(await storedScore(apart!))).toBe(0);
+      // The unscored answer still waits, for one score, in everyone's queue.
+      expect(await storedScore(open!)).toBeNull();
+      const queue = await request(app.server)
+        .get(`/api/admin/studies/${lowered.studyId}/scoring-queue`)
+        .set(third);
+      expect(queue.body.entries.map((e: { entryId: string }) => e.entryId)).toEqual([open]);
+      expect(queue.body.scoresNeeded).toBe(1);
+      const audit = await database.db
+        .selectFrom('audit_log')
+        .select('details')
+        .where('action', '=', 'study.update')
+        .where('subject', '=', lowered.studyId)
+        .execute();
+      expect(audit.map((a) => JSON.parse(a.details).rubricAnswersResolved)).toEqual([2]);
     });
   });
 }
