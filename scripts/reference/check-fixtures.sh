@@ -8,8 +8,8 @@
 #   rasch-lme4.R       -> lme4-*.json
 #   normal-cdf.R       -> pnorm.json
 #   export-to-erm.R    -> export-erm-*.json (from the committed test/reference/export-erm-*.csv)
-# Numbers are compared to 8 significant digits (absolute 1e-9 near zero); strings and array
-# shapes must match exactly. Needs Rscript with eRm, psychotools, psych, lme4 and jsonlite, and node.
+# Numbers are compared to 8 significant digits (absolute 1e-9 near zero), lme4's iterative fits to
+# 1e-5 relative (see the comment in the comparison); strings and array shapes must match exactly. Needs Rscript with eRm, psychotools, psych, lme4 and jsonlite, and node.
 set -eu
 cd "$(dirname "$0")/../.."
 if ! command -v Rscript >/dev/null 2>&1; then
@@ -28,10 +28,17 @@ node --input-type=module - "$fresh" <<'JS'
 import { readFileSync, readdirSync } from 'node:fs';
 const fresh = process.argv[2];
 const problems = [];
+// glmer's fit is an iterative, derivative-free optimisation: on another CPU (the same lme4, R and
+// Debian packages) its floating-point path differs and it stops a few 1e-7 away, and its gradient
+// diagnostic moves by about 1e-5. So lme4 fixtures are compared to 1e-5 relative (the tests compare
+// our MML with them to 2e-3), and `maxAbsGradient` only to 1e-3 absolute; every closed-form
+// fixture keeps 8 significant digits.
+let relative = 1e-8;
 const compare = (a, b, path) => {
   if (typeof a === 'number' && typeof b === 'number') {
     const scale = Math.max(Math.abs(a), Math.abs(b));
-    if (Math.abs(a - b) > Math.max(1e-9, 1e-8 * scale)) problems.push(`${path}: committed ${a}, fresh ${b}`);
+    const allowed = path.endsWith('.maxAbsGradient') && relative > 1e-8 ? 1e-3 : Math.max(1e-9, relative * scale);
+    if (Math.abs(a - b) > allowed) problems.push(`${path}: committed ${a}, fresh ${b}`);
   } else if (Array.isArray(a) && Array.isArray(b)) {
     if (a.length !== b.length) problems.push(`${path}: length ${a.length} vs ${b.length}`);
     else a.forEach((v, k) => compare(v, b[k], `${path}[${k}]`));
@@ -51,6 +58,7 @@ for (const name of names) {
     problems.push(`${name}: not committed`);
     continue;
   }
+  relative = name.startsWith('lme4-') ? 1e-5 : 1e-8;
   compare(committed, JSON.parse(readFileSync(`${fresh}/${name}`, 'utf8')), name);
 }
 for (const name of readdirSync('test/reference').filter((f) => generated.test(f))) {
