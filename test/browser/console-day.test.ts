@@ -288,6 +288,13 @@ describe.runIf(browserAvailable())('a team day in the console (768 px)', { timeo
     await checkPage(page, '14-pilot-added');
     const stored = await database.db.selectFrom('pilot_items').selectAll().execute();
     expect(stored.map((p) => [p.study_id, p.key])).toEqual([[studyId, JSON.stringify('b')]]);
+
+    // Enough answers for the team: stop giving it to new attempts.
+    await page.getByRole('button', { name: 'Stop giving this chart to new attempts' }).click();
+    await page.getByText('New attempts no longer get that pilot chart.').waitFor();
+    await checkPage(page, '15-pilot-stopped');
+    const after = await database.db.selectFrom('pilot_items').select('status').execute();
+    expect(after.map((p) => p.status)).toEqual(['retired']);
   });
 
   it('signs out, and then no console page opens', async () => {

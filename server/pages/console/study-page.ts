@@ -58,7 +58,7 @@ ${options.canEdit && options.cohortForm !== undefined ? cohortForm(study, option
 ${options.cohorts.map((c) => html`<li><a href="${reportUrl}?cohort=${encodeURIComponent(c.id)}">Report of ${c.label}</a></li>`)}
 </ul>
 ${options.cohorts.length >= 2 ? comparePicker(study, options.cohorts) : html`<p class="hint">Add a second cohort to compare cohorts.</p>`}
-${options.canEdit ? html`<p class="study-actions"><a href="/console/studies/${id}/calibrate">Calibrate the study now</a> (the report also calibrates when its answers changed) · <a href="/console/studies/${id}/pilots/new">Add a pilot chart</a></p>` : ''}
+${options.canEdit ? html`<p class="study-actions"><a href="/console/studies/${id}/calibrate">Calibrate the study now</a> (the report also calibrates when its answers changed) · <a href="/console/studies/${id}/pilots/new">Pilot charts: add one, or stop showing one</a></p>` : ''}
 </section>
 
 <section aria-labelledby="settings-heading">
