@@ -25,9 +25,6 @@
  */
 import { randomUUID } from 'node:crypto';
 import { AppError } from '../errors.js';
-import { calibrateMml } from '../scoring/rasch/calibrate-mml.js';
-import { computeFitStatistics } from '../scoring/rasch/fit-statistics.js';
-import { pcmItemFit } from '../scoring/rasch/pcm-item-fit.js';
 import {
   type CalibrationItemRecord,
   type CalibrationRecord,
@@ -40,10 +37,18 @@ import { listCohorts } from '../storage/cohort-repository.js';
 import { type DbHandle, nowIso } from '../storage/db-handle.js';
 import { listRubricScoredItemIds } from '../storage/rubric-score-repository.js';
 import { findStudyById } from '../storage/study-repository.js';
-import { bootstrapAbilityDistributions } from './bootstrap-ability-distributions.js';
-import { fitPartialCreditStudy } from './partial-credit-study-fit.js';
-import { personEstimates } from './person-estimates.js';
+import { runInWorker } from '../workers/run-in-worker.js';
+import { fitStudyCalibration, type StudyFit, type StudyFitInput } from './fit-study-calibration.js';
 import { studyResponseMatrix } from './study-response-matrix.js';
+
+/** The module `runInWorker` loads for a large study's fit. */
+const fitModule = new URL('./fit-study-calibration.ts', import.meta.url).href;
+
+/**
+ * Scored answers from which a study is fitted in a worker thread (the demo's 6,240 answers take
+ * about 2 s of arithmetic; 2,000 about half a second, more than a worker's start).
+ */
+export const workerThreshold = 2000;
 
 export interface CalibrateStudyOptions {
   /** Respondents with a finished attempt needed to calibrate (default 30). */
@@ -60,6 +65,8 @@ export interface CalibrateStudyOptions {
   readonly maxIterations?: number;
   /** Gauss–Hermite points of the MML fit (default 41). */
   readonly quadraturePoints?: number;
+  /** Fit in a worker thread (default: from `workerThreshold` scored answers on). */
+  readonly inWorker?: boolean;
 }
 
 export const defaultCalibrationSettings = {
@@ -239,27 +246,27 @@ export async function calibrateStudy(
       );
   }
 
-  let fit: Pick<
-    ReturnType<typeof calibrateMml>,
-    'itemIds' | 'difficulty' | 'standardError' | 'groups' | 'converged' | 'iterations' | 'logLikelihood'
-  > & { readonly excludedItems: readonly { readonly id: string; readonly reason: string }[] };
-  let partialCredit: ReturnType<typeof fitPartialCreditStudy> | undefined;
-  try {
-    if (rubricItems.size > 0) {
-      partialCredit = fitPartialCreditStudy(matrix, rubricItems, groups, { quadraturePoints, maxIterations });
-      fit = partialCredit;
-    } else {
-      fit = calibrateMml(matrix, {
-        groups,
-        quadraturePoints,
-        maxIterations,
-        ...(anchors ? { anchors } : {}),
-      });
-    }
-  } catch (error) {
+  const input: StudyFitInput = {
+    matrix,
+    groups,
+    rubricItems,
+    anchors,
+    quadraturePoints,
+    maxIterations,
+    replicates,
+    seed,
+  };
+  // Seconds of arithmetic for a large study: in a worker thread, so the server keeps answering
+  // respondents meanwhile (a report opened during a live session recalibrates). Small studies are
+  // fitted here: starting a worker costs more than their fit.
+  const inWorker = options.inWorker ?? responses.length >= workerThreshold;
+  const fit = inWorker
+    ? await runInWorker<StudyFit>(fitModule, 'fitStudyCalibration', [input])
+    : fitStudyCalibration(input);
+  if (!fit.ok) {
     throw new AppError(
       'CALIBRATION_NOT_CONVERGED',
-      `The answers of study "${study.title}" cannot be calibrated yet (${(error as Error).message}). More respondents, or items shared between booklets, usually fix this.`,
+      `The answers of study "${study.title}" cannot be calibrated yet (${fit.message}). More respondents, or items shared between booklets, usually fix this.`,
     );
   }
   for (const excluded of fit.excludedItems) {
@@ -273,30 +280,7 @@ export async function calibrateStudy(
       moreNeeded: 0,
     });
   }
-
-  // Fit statistics with every person at the WLE given the calibrated difficulties.
-  const difficultyOf = new Map(fit.itemIds.map((id, i) => [id, fit.difficulty[i]!]));
-  const columnDifficulties = Float64Array.from(matrix.itemIds, (id) => difficultyOf.get(id) ?? Number.NaN);
-  const stepsOf = partialCredit?.steps;
-  const columnSteps = stepsOf ? matrix.itemIds.map((id) => stepsOf.get(id)) : undefined;
-  const persons = personEstimates(matrix, columnDifficulties, columnSteps);
-  const abilities = new Float64Array(matrix.personIds.length).fill(Number.NaN);
-  const rowOf = new Map(matrix.personIds.map((id, p) => [id, p]));
-  for (const person of persons) abilities[rowOf.get(person.personId)!] = person.ability;
-  // Rasch mean-squares for right/wrong items (rubric columns skipped as NaN); partial credit
-  // mean-squares for rubric items.
-  const fitDifficulties = Float64Array.from(matrix.itemIds, (id, c) =>
-    stepsOf?.has(id) ? Number.NaN : columnDifficulties[c]!,
-  );
-  const itemFit = computeFitStatistics(matrix, fitDifficulties, abilities).items;
-  if (columnSteps) {
-    const rubricFit = pcmItemFit(matrix, columnSteps, abilities);
-    columnSteps.forEach((steps, c) => {
-      if (steps === undefined) return;
-      itemFit.infit[c] = rubricFit.infit[c]!;
-      itemFit.outfit[c] = rubricFit.outfit[c]!;
-    });
-  }
+  const partialCredit = fit.partialCredit;
   const columnOf = new Map(matrix.itemIds.map((id, c) => [id, c]));
   const finite = (value: number) => (Number.isFinite(value) ? value : null);
 
@@ -307,19 +291,12 @@ export async function calibrateStudy(
       itemVersion: newestVersion.get(itemId) ?? 1,
       difficulty: fit.difficulty[i]!,
       standardError: anchors?.has(itemId) ? null : finite(fit.standardError[i]!),
-      infit: finite(itemFit.infit[column]!),
-      outfit: finite(itemFit.outfit[column]!),
+      infit: finite(fit.infit[column]!),
+      outfit: finite(fit.outfit[column]!),
       anchored: anchors?.has(itemId) ?? false,
     };
   });
-
-  const draws =
-    fit.converged && replicates > 0
-      ? bootstrapAbilityDistributions(matrix, partialCredit?.dichotomous ?? difficultyOf, groups, {
-          replicates,
-          seed,
-        }).map((replicate) => replicate.map((g) => [round6(g.mean), round6(g.sd)] as const))
-      : [];
+  const draws = fit.draws;
 
   const labelOf = new Map(cohorts.map((c) => [c.id, c.label]));
   const settings: StoredCalibrationSettings = {
@@ -345,7 +322,7 @@ export async function calibrateStudy(
             items: [...partialCredit.steps].map(([itemId, steps]) => ({
               itemId,
               steps: steps.map(round6),
-              stepStandardErrors: (partialCredit?.stepStandardErrors.get(itemId) ?? []).map(round6),
+              stepStandardErrors: (partialCredit.stepStandardErrors.get(itemId) ?? []).map(round6),
             })),
           },
         }

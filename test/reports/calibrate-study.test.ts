@@ -2,7 +2,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { courseAfter, demoCohorts } from '../../server/demo/simulated-audience.js';
 import { AppError } from '../../server/errors.js';
 import { buildReport } from '../../server/reports/build-report.js';
-import { calibrateStudy } from '../../server/reports/calibrate-study.js';
+import { calibrateStudy, workerThreshold } from '../../server/reports/calibrate-study.js';
 import type { ReportItemInfo } from '../../server/reports/compose-report.js';
 import { listScoredResponses } from '../../server/storage/calibration-repository.js';
 import { migrateToLatest } from '../../server/storage/migrate.js';
@@ -115,6 +115,20 @@ describe('calibrateStudy and buildReport on a simulated audience (service layer)
     expect(cmp.effectSize).toBeCloseTo(d, 2);
     expect(cmp.cells).toHaveLength(12);
   }, 60_000);
+
+  it('fits the same in a worker thread as in the server thread (large studies go to a worker)', async () => {
+    // The simulated study has 520 × 18 = 9,360 answers: above the threshold, so the default path is
+    // the worker; both paths must store the same numbers.
+    const responses = await listScoredResponses(database.db, studyId);
+    expect(responses.length).toBeGreaterThanOrEqual(workerThreshold);
+    const options = { replicates: 20, seed: 3 };
+    const here = await calibrateStudy(database.db, studyId, { ...options, inWorker: false });
+    const there = await calibrateStudy(database.db, studyId, { ...options, inWorker: true });
+    expect(there.items).toEqual(here.items);
+    expect(there.settings).toEqual(here.settings);
+    expect(there.record.logLikelihood).toBe(here.record.logLikelihood);
+    expect(there.settings.bootstrap.draws).toHaveLength(20);
+  });
 
   it('refuses a non-converged calibration with a clear message', async () => {
     const forced = await calibrateStudy(database.db, studyId, { maxIterations: 1, replicates: 0 });
